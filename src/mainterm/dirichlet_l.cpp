@@ -1,0 +1,288 @@
+// Quadratic characters and L(k, χ): exact (generalised Bernoulli numbers) and
+// balls (Euler product with a rigorous tail bound). Formulas in the header.
+#include "mainterm/dirichlet_l.hpp"
+
+#include <arb.h>
+#include <flint/arith.h>
+#include <flint/fmpz_factor.h>
+#include <flint/ulong_extras.h>
+
+#include <cmath>
+#include <vector>
+
+#include "core/error.hpp"
+
+namespace circlet {
+
+int kronecker_symbol(slong d, ulong n) {
+  CIRCLET_ASSERT(n >= 1, "kronecker_symbol: n must be positive");
+  int s = 1;
+  unsigned e = 0;
+  while ((n & 1) == 0) {
+    n >>= 1;
+    ++e;
+  }
+  if (e > 0) {
+    if ((d & 1) == 0) return 0;
+    // (d/2) = 1 for d ≡ ±1 (mod 8), −1 for d ≡ ±3 (mod 8).
+    slong r = ((d % 8) + 8) % 8;
+    if ((r == 3 || r == 5) && (e & 1)) s = -s;
+  }
+  if (n == 1) return s;
+  slong x = d % (slong)n;  // n odd < 2^63 here because d fits a slong and n is bounded by callers
+  ulong ux = x < 0 ? (ulong)(x + (slong)n) : (ulong)x;
+  return s * n_jacobi_unsigned(ux, n);
+}
+
+int kronecker_symbol(const Fmpz& d, const Fmpz& n) {
+  CIRCLET_ASSERT(fmpz_sgn(n.get()) > 0, "kronecker_symbol: n must be positive");
+  return fmpz_kronecker(d.get(), n.get());
+}
+
+namespace {
+
+// Squarefree kernel with sign of a non-zero integer times the one of another:
+// sign(a b) · Π_{p : v_p(ab) odd} p.
+void signed_core(fmpz_t core, const fmpz_t a, const fmpz_t b) {
+  fmpz_one(core);
+  for (const fmpz* x : {a, b}) {
+    fmpz_factor_t fac;
+    fmpz_factor_init(fac);
+    fmpz_factor(fac, x);
+    for (slong i = 0; i < fac->num; ++i)
+      if (fac->exp[i] & 1) fmpz_mul(core, core, fac->p + i);
+    fmpz_factor_clear(fac);
+  }
+  if (fmpz_sgn(a) * fmpz_sgn(b) < 0) fmpz_neg(core, core);
+}
+
+}  // namespace
+
+bool is_fundamental_discriminant(const Fmpz& d) {
+  if (fmpz_is_one(d.get())) return true;
+  if (fmpz_is_zero(d.get())) return false;
+  Fmpz one(1), core;
+  signed_core(core.get(), d.get(), one.get());
+  Fmpz four_core;
+  fmpz_mul_ui(four_core.get(), core.get(), 4);
+  if (fmpz_fdiv_ui(core.get(), 4) == 1) return fmpz_equal(core.get(), d.get());
+  return fmpz_equal(four_core.get(), d.get());
+}
+
+Fmpz fundamental_discriminant(const Fmpq& D) {
+  CIRCLET_ASSERT(!D.is_zero(), "fundamental_discriminant: D must be non-zero");
+  Fmpz core;
+  signed_core(core.get(), fmpq_numref(D.get()), fmpq_denref(D.get()));
+  // Q(sqrt(s)) for squarefree s: discriminant s if s ≡ 1 (mod 4), else 4s.
+  if (fmpz_fdiv_ui(core.get(), 4) != 1) fmpz_mul_ui(core.get(), core.get(), 4);
+  return core;
+}
+
+Fmpq discriminant_cofactor(const Fmpq& D, const Fmpz& d0) {
+  Fmpq q;
+  fmpq_set_fmpz_frac(q.get(), d0.get(), Fmpz(1).get());
+  fmpq_div(q.get(), D.get(), q.get());
+  CIRCLET_ASSERT(fmpq_sgn(q.get()) > 0, "discriminant_cofactor: D and d0 differ in sign");
+  Fmpz rn, rd, rem;
+  fmpz_sqrtrem(rn.get(), rem.get(), fmpq_numref(q.get()));
+  CIRCLET_ASSERT(fmpz_is_zero(rem.get()), "discriminant_cofactor: D/d0 is not a square");
+  fmpz_sqrtrem(rd.get(), rem.get(), fmpq_denref(q.get()));
+  CIRCLET_ASSERT(fmpz_is_zero(rem.get()), "discriminant_cofactor: D/d0 is not a square");
+  Fmpq g;
+  fmpq_set_fmpz_frac(g.get(), rn.get(), rd.get());
+  return g;
+}
+
+Fmpq generalised_bernoulli(const Fmpz& d, ulong k) {
+  CIRCLET_ASSERT(k >= 1, "generalised_bernoulli: k must be positive");
+  CIRCLET_ASSERT(fmpz_bits(d.get()) < 62, "generalised_bernoulli: conductor too large");
+  slong ds = fmpz_get_si(d.get());
+  ulong f = (ulong)(ds < 0 ? -ds : ds);
+  // S_j = Σ_{a=1}^{f} χ(a) a^j, j = 0..k, exact integers.
+  std::vector<Fmpz> S(k + 1);
+  Fmpz pw;
+  for (ulong a = 1; a <= f; ++a) {
+    int c = (f == 1) ? 1 : kronecker_symbol(ds, a);
+    if (c == 0) continue;
+    fmpz_one(pw.get());
+    for (ulong j = 0; j <= k; ++j) {
+      if (c > 0)
+        fmpz_add(S[j].get(), S[j].get(), pw.get());
+      else
+        fmpz_sub(S[j].get(), S[j].get(), pw.get());
+      fmpz_mul_ui(pw.get(), pw.get(), a);
+    }
+  }
+  // B_{k,χ} = f^{k−1} Σ_a χ(a) B_k(a/f) = Σ_{j=0}^{k} C(k,j) B_{k−j} f^{k−1−j} S_j.
+  Fmpq total, term, b;
+  Fmpz binom, fpow;
+  for (ulong j = 0; j <= k; ++j) {
+    arith_bernoulli_number(b.get(), k - j);
+    fmpz_bin_uiui(binom.get(), k, j);
+    fmpq_mul_fmpz(term.get(), b.get(), binom.get());
+    fmpq_mul_fmpz(term.get(), term.get(), S[j].get());
+    long e = (long)k - 1 - (long)j;
+    if (e >= 0) {
+      fmpz_ui_pow_ui(fpow.get(), f, (ulong)e);
+      fmpq_mul_fmpz(term.get(), term.get(), fpow.get());
+    } else {
+      fmpz_set_ui(fpow.get(), f);  // e = −1
+      fmpq_div_fmpz(term.get(), term.get(), fpow.get());
+    }
+    fmpq_add(total.get(), total.get(), term.get());
+  }
+  return total;
+}
+
+Fmpq dirichlet_l_rational(const Fmpz& d, ulong k) {
+  CIRCLET_ASSERT(k >= 1, "dirichlet_l_rational: k must be positive");
+  CIRCLET_ASSERT(is_fundamental_discriminant(d), "dirichlet_l_rational: d must be fundamental");
+  int sign = fmpz_sgn(d.get());
+  CIRCLET_ASSERT((sign > 0) == (k % 2 == 0), "dirichlet_l_rational: need χ(−1) = (−1)^k");
+  CIRCLET_ASSERT(!(fmpz_is_one(d.get()) && k == 1), "dirichlet_l_rational: ζ(1) diverges");
+  // R = (−1)^{1+⌊k/2⌋} 2^{k−1}/k! · B_{k,χ}/f^{k−1}.
+  Fmpq B = generalised_bernoulli(d, k);
+  Fmpz f, fac, two;
+  fmpz_abs(f.get(), d.get());
+  fmpz_pow_ui(f.get(), f.get(), k - 1);
+  fmpz_fac_ui(fac.get(), k);
+  fmpz_one(two.get());
+  fmpz_mul_2exp(two.get(), two.get(), k - 1);
+  Fmpq R;
+  fmpq_mul_fmpz(R.get(), B.get(), two.get());
+  fmpq_div_fmpz(R.get(), R.get(), fac.get());
+  fmpq_div_fmpz(R.get(), R.get(), f.get());
+  if (((1 + k / 2) & 1) == 1) fmpq_neg(R.get(), R.get());
+  return R;
+}
+
+void dirichlet_l_from_rational(arb_t res, const Fmpq& R, const Fmpz& d, ulong k, slong prec) {
+  slong wp = prec + 10;
+  Arb pi, f;
+  arb_const_pi(pi, wp);
+  arb_pow_ui(pi, pi, k, wp);
+  arb_set_fmpz(f, d.get());
+  arb_abs(f, f);
+  arb_rsqrt(f, f, wp);
+  arb_mul(pi, pi, f, wp);
+  arb_mul_fmpz(res, pi, fmpq_numref(R.get()), wp);
+  arb_div_fmpz(res, res, fmpq_denref(R.get()), prec);
+}
+
+Fmpq zeta_even_rational(ulong k) {
+  CIRCLET_ASSERT(k >= 1, "zeta_even_rational: k must be positive");
+  // ζ(2k) = (−1)^{k+1} B_{2k} (2π)^{2k} / (2 (2k)!)  (Euler).
+  Fmpq Z;
+  arith_bernoulli_number(Z.get(), 2 * k);
+  Fmpz f;
+  fmpz_fac_ui(f.get(), 2 * k);
+  fmpq_div_fmpz(Z.get(), Z.get(), f.get());
+  fmpq_mul_2exp(Z.get(), Z.get(), 2 * k - 1);
+  if (k % 2 == 0) fmpq_neg(Z.get(), Z.get());
+  return Z;
+}
+
+void dirichlet_l_euler_tail(arb_t eps, ulong k, ulong P, slong prec) {
+  CIRCLET_ASSERT(k >= 2 && P >= 2, "dirichlet_l_euler_tail: need k ≥ 2, P ≥ 2");
+  // For p > P:  |log (1 − χ(p)p^{−k})^{−1}| = |Σ_m χ(p)^m p^{−mk}/m| ≤ p^{−k}/(1 − p^{−k})
+  //                                          ≤ p^{−k}/(1 − P^{−k}).
+  // Σ_{p>P} p^{−k} = ∫_P^∞ x^{−k} dπ(x) = −π(P)P^{−k} + k ∫_P^∞ π(x) x^{−k−1} dx
+  //                ≤ k ∫_P^∞ 1.25506 x^{−k}/log x dx ≤ 1.25506 k P^{1−k} / ((k−1) log P),
+  // using π(x) < 1.25506 x/log x for x > 1 (J. B. Rosser and L. Schoenfeld,
+  // "Approximate formulas for some functions of prime numbers", Illinois J.
+  // Math. 6 (1962), 64–94, Corollary 1 to Theorem 2; constant quoted from memory)
+  // and 1/log x ≤ 1/log P on [P, ∞). Hence
+  //   ε = 1.25506 k P^{1−k} / ((k−1) log P (1 − P^{−k})).
+  slong wp = prec + 20;
+  Arb c, t, u;
+  arb_set_str(c, "1.25506", wp);  // the decimal is exact enough: arb_set_str gives a ball containing 1.25506
+  arb_mul_ui(c, c, k, wp);
+  arb_set_ui(t, P);
+  arb_pow_ui(u, t, k - 1, wp);  // P^{k−1}
+  arb_div(c, c, u, wp);
+  arb_div_ui(c, c, k - 1, wp);
+  arb_log_ui(u, P, wp);
+  arb_div(c, c, u, wp);
+  // divide by 1 − P^{−k}
+  arb_pow_ui(u, t, k, wp);
+  arb_inv(u, u, wp);
+  arb_sub_ui(u, u, 1, wp);
+  arb_neg(u, u);
+  arb_div(c, c, u, wp);
+  // Return the upper end as an exact non-negative number.
+  arb_get_ubound_arf(arb_midref(eps), c, prec);
+  mag_zero(arb_radref(eps));
+}
+
+ulong dirichlet_l_euler_bound(ulong k, slong prec, ulong max_P) {
+  CIRCLET_ASSERT(k >= 2, "dirichlet_l_euler_bound: need k ≥ 2");
+  // Choose P with P^{1−k} ≈ 2^{−prec}; a double only chooses the truncation point.
+  double lp = (double)prec / (double)(k - 1);
+  double P = lp > 62 ? 1e19 : std::ldexp(1.0, (int)std::ceil(lp));
+  if (P > (double)max_P) P = (double)max_P;
+  if (P < 100) P = 100;
+  return (ulong)P;
+}
+
+void dirichlet_l_euler(arb_t res, const Fmpz& d, ulong k, ulong P, slong prec) {
+  CIRCLET_ASSERT(k >= 2, "dirichlet_l_euler: need k ≥ 2");
+  CIRCLET_ASSERT(fmpz_bits(d.get()) < 62, "dirichlet_l_euler: discriminant too large");
+  slong ds = fmpz_get_si(d.get());
+  slong wp = prec + 2 * FLINT_BIT_COUNT(P) + 20;
+  // Π_{p ≤ P} (1 − χ(p)p^{−k})^{−1} = Π p^k / (p^k − χ(p)), accumulated as a
+  // quotient of two balls (each factor an exact small integer when p^k < 2^63).
+  Arb num, den, t;
+  arb_one(num);
+  arb_one(den);
+  n_primes_t iter;
+  n_primes_init(iter);
+  for (ulong p = n_primes_next(iter); p <= P; p = n_primes_next(iter)) {
+    int c = kronecker_symbol(ds, p);
+    if (c == 0) continue;
+    ulong hi, lo = 1;
+    bool small = true;
+    for (ulong i = 0; i < k && small; ++i) {
+      umul_ppmm(hi, lo, lo, p);
+      if (hi != 0 || lo >= (UWORD(1) << 62)) small = false;
+    }
+    if (small) {
+      arb_mul_ui(num, num, lo, wp);
+      arb_mul_ui(den, den, c > 0 ? lo - 1 : lo + 1, wp);
+    } else {
+      arb_ui_pow_ui(t, p, k, wp);
+      arb_mul(num, num, t, wp);
+      if (c > 0)
+        arb_sub_ui(t, t, 1, wp);
+      else
+        arb_add_ui(t, t, 1, wp);
+      arb_mul(den, den, t, wp);
+    }
+  }
+  n_primes_clear(iter);
+  arb_div(num, num, den, wp);
+  // Tail factor exp(θ), |θ| ≤ ε (see dirichlet_l_euler_tail).
+  Arb eps;
+  dirichlet_l_euler_tail(eps, k, P, wp);
+  arb_zero(t);
+  arb_add_error(t, eps);
+  arb_exp(t, t, wp);
+  arb_mul(res, num, t, prec);
+}
+
+void dirichlet_l(arb_t res, const Fmpz& d, ulong k, slong prec, ulong max_exact_conductor,
+                 ulong max_P) {
+  Fmpz f;
+  fmpz_abs(f.get(), d.get());
+  if (fmpz_cmp_ui(f.get(), max_exact_conductor) <= 0) {
+    Fmpq R = dirichlet_l_rational(d, k);
+    dirichlet_l_from_rational(res, R, d, k, prec);
+    return;
+  }
+  if (k >= 2) {
+    dirichlet_l_euler(res, d, k, dirichlet_l_euler_bound(k, prec, max_P), prec);
+    return;
+  }
+  arb_indeterminate(res);
+}
+
+}  // namespace circlet

@@ -1,0 +1,34 @@
+#pragma once
+// PARI/GP as an outside reference for the main-term tests. Tests that use it
+// skip with a visible WARN when `gp` is not on PATH.
+#include <array>
+#include <cstdio>
+#include <cstdlib>
+#include <fstream>
+#include <memory>
+#include <string>
+#include <unistd.h>
+
+namespace circlet::testing {
+
+inline bool gp_available() { return std::system("command -v gp >/dev/null 2>&1") == 0; }
+
+/// Runs a GP script (quiet, no default stack trouble) and returns its stdout.
+inline std::string gp_run(const std::string& script) {
+  std::string path = "/tmp/circlet_mainterm_gp_" + std::to_string(::getpid()) + ".gp";
+  {
+    std::ofstream out(path);
+    out << "default(parisizemax, 200000000);\n" << script << "\nquit;\n";
+  }
+  std::string cmd = "gp -q -f " + path + " 2>/dev/null";
+  std::unique_ptr<FILE, int (*)(FILE*)> pipe(::popen(cmd.c_str(), "r"), ::pclose);
+  std::string out;
+  if (!pipe) return out;
+  std::array<char, 4096> buf;
+  size_t n;
+  while ((n = std::fread(buf.data(), 1, buf.size(), pipe.get())) > 0) out.append(buf.data(), n);
+  std::remove(path.c_str());
+  return out;
+}
+
+}  // namespace circlet::testing
