@@ -1,0 +1,208 @@
+#include "arcs/arc_terms.hpp"
+
+#include <arb.h>
+#include <flint/fmpq.h>
+#include <flint/fmpz_factor.h>
+#include <flint/ulong_extras.h>
+
+#include <algorithm>
+#include <map>
+#include <set>
+#include <utility>
+
+#include "core/error.hpp"
+#include "mainterm/singular_integral.hpp"
+#include "quadratic/local_density.hpp"
+
+namespace circlet {
+
+namespace {
+
+// Prime-power pieces f(p^j) = A_{p^j}(n)/p^{jw}, each computed once.
+class PieceCache {
+ public:
+  PieceCache(const QuadraticModel& model, const Fmpz& n) : model_(model), n_(n) {}
+  const Fmpq& piece(ulong p, int j) {
+    auto key = std::make_pair(p, j);
+    auto it = cache_.find(key);
+    if (it != cache_.end()) return it->second;
+    return cache_.emplace(key, local_arc_piece(model_, n_, p, j)).first->second;
+  }
+  // Σ_{j ≥ 0} |f(p^j)|, exact: f(p^j) = 0 beyond the stable exponent.
+  Fmpq abs_sum(ulong p) {
+    const int J = local_density_stable_exponent(model_, n_, p);
+    Fmpq s(1), a;
+    for (int j = 1; j <= J + 1; ++j) {
+      fmpq_abs(a.get(), piece(p, j).get());
+      fmpq_add(s.get(), s.get(), a.get());
+    }
+    return s;
+  }
+
+ private:
+  const QuadraticModel& model_;
+  const Fmpz& n_;
+  std::map<std::pair<ulong, int>, Fmpq> cache_;
+};
+
+std::vector<Fmpq> coefficients_with(PieceCache& cache, ulong K) {
+  std::vector<Fmpq> out(K);
+  n_factor_t fac;
+  for (ulong k = 1; k <= K; ++k) {
+    Fmpq f(1);
+    n_factor_init(&fac);
+    if (k > 1) n_factor(&fac, k, 1);
+    for (int i = 0; i < fac.num && !f.is_zero(); ++i)
+      fmpq_mul(f.get(), f.get(), cache.piece(fac.p[i], static_cast<int>(fac.exp[i])).get());
+    out[k - 1] = f;
+  }
+  return out;
+}
+
+// Primes dividing the numerator or the denominator of X, together with the
+// structural primes up to `limit` and p = 2: the primes where the good-prime
+// closed form |f(p)| = p^{−s}, f(p^j) = 0 (j ≥ 2) is not used.
+std::set<ulong> special_primes(const QuadraticModel& model, const Fmpq& X) {
+  std::set<ulong> out{2};
+  for (const fmpz* part : {fmpq_numref(X.get()), fmpq_denref(X.get())}) {
+    fmpz_factor_t f;
+    fmpz_factor_init(f);
+    Fmpz a;
+    fmpz_abs(a.get(), part);
+    if (!fmpz_is_zero(a.get())) fmpz_factor(f, a.get());
+    for (slong i = 0; i < f->num; ++i) {
+      CIRCLET_ASSERT(fmpz_abs_fits_ui(f->p + i), "prime factor of X too large");
+      out.insert(fmpz_get_ui(f->p + i));
+    }
+    fmpz_factor_clear(f);
+  }
+  // Structural primes divide 2t (or are 2 for sq_S).
+  const ulong t = static_cast<ulong>(model.family.t);
+  for (ulong p = 2; p <= std::max<ulong>(t, 2); ++p)
+    if (n_is_prime(p) && is_structural_prime(model, p)) out.insert(p);
+  return out;
+}
+
+}  // namespace
+
+std::vector<Fmpq> arc_coefficients(const QuadraticModel& model, const Fmpz& n, ulong K) {
+  PieceCache cache(model, n);
+  return coefficients_with(cache, K);
+}
+
+ArcTailBound arc_tail_bound(const QuadraticModel& model, const Fmpz& n, const std::vector<Fmpq>& coeffs,
+                            slong prec, ulong prime_cutoff) {
+  const ulong K = coeffs.size();
+  ArcTailBound out;
+  out.decay = model.rank / 2;  // s = ⌊r/2⌋
+  out.prime_cutoff = prime_cutoff ? prime_cutoff : std::max<ulong>(100000, 100 * K);
+  const ulong P0 = std::max(out.prime_cutoff, K);
+  out.prime_cutoff = P0;
+  const int s = out.decay;
+  if (s < 2) {
+    arb_pos_inf(out.coefficient_tail.get());
+    out.method = "no bound: rank " + std::to_string(model.rank) +
+                 " <= 3, the singular series does not converge absolutely";
+    return out;
+  }
+  const Fmpq X = model.X(n);
+  const std::set<ulong> special = special_primes(model, X);
+  PieceCache cache(model, n);
+  const slong wp = prec + 30;
+
+  // E = Π_{p ≤ P₀ or special} F_p · exp(P₀^{1−s}/(s−1)),
+  // F_p = Σ_j |f(p^j)| exactly for p ≤ K or p special, F_p = 1 + p^{−s} otherwise.
+  Arb E, F, term;
+  arb_one(E.get());
+  n_primes_t it;
+  n_primes_init(it);
+  for (ulong p = n_primes_next(it); p <= P0; p = n_primes_next(it)) {
+    if (p <= K || special.count(p)) {
+      arb_set_fmpq(F.get(), cache.abs_sum(p).get(), wp);
+    } else {
+      arb_ui_pow_ui(term.get(), p, static_cast<ulong>(s), wp);
+      arb_inv(term.get(), term.get(), wp);
+      arb_add_ui(F.get(), term.get(), 1, wp);  // 1 + p^{−s}
+    }
+    arb_mul(E.get(), E.get(), F.get(), wp);
+  }
+  n_primes_clear(it);
+  for (ulong p : special)
+    if (p > P0) {
+      out.special_primes.push_back(p);
+      arb_set_fmpq(F.get(), cache.abs_sum(p).get(), wp);
+      arb_mul(E.get(), E.get(), F.get(), wp);
+    }
+  // × exp(P₀^{1−s}/(s−1)) ≥ Π_{p > P₀, good} (1 + p^{−s})
+  arb_ui_pow_ui(term.get(), P0, static_cast<ulong>(s - 1), wp);
+  arb_mul_ui(term.get(), term.get(), static_cast<ulong>(s - 1), wp);
+  arb_inv(term.get(), term.get(), wp);
+  arb_exp(term.get(), term.get(), wp);
+  arb_mul(E.get(), E.get(), term.get(), wp);
+
+  // T = E − Σ_{k≤K} |f(k)| ≥ Σ_{k>K} |f(k)|
+  Fmpq S, a;
+  for (const auto& c : coeffs) {
+    fmpq_abs(a.get(), c.get());
+    fmpq_add(S.get(), S.get(), a.get());
+  }
+  arb_set_fmpq(term.get(), S.get(), wp);
+  arb_sub(E.get(), E.get(), term.get(), wp);
+  arf_t up;
+  arf_init(up);
+  arb_get_ubound_arf(up, E.get(), prec);
+  if (arf_sgn(up) < 0) arf_zero(up);  // cannot happen mathematically; keep the bound non-negative
+  arb_set_arf(out.coefficient_tail.get(), up);
+  arf_clear(up);
+  for (ulong p : special)
+    if (p > K && p <= P0) out.special_primes.push_back(p);
+  std::sort(out.special_primes.begin(), out.special_primes.end());
+  out.method = "Euler product of |A_k/k^w| minus the partial sum: exact local factors at p <= K and at "
+               "primes dividing 2tX, factors 1 + p^-" + std::to_string(s) + " at good primes up to " +
+               std::to_string(P0) + ", exp(P0^(1-s)/(s-1)) beyond";
+  return out;
+}
+
+ArcExpansion arc_expansion(const QuadraticModel& model, const Fmpz& n, ulong K, slong prec) {
+  if (K == 0) throw UserError("--upto must be at least 1");
+  ArcExpansion out;
+  out.n = n;
+  out.K = K;
+  out.X = model.X(n);
+  if (fmpq_sgn(out.X.get()) <= 0)
+    throw UserError("X = n + Delta = " + out.X.str() + " is not positive; choose n >= 0");
+  singular_integral(out.singular_integral.get(), model.rank, model.det_gram, out.X, prec);
+
+  PieceCache cache(model, n);
+  const std::vector<Fmpq> coeffs = coefficients_with(cache, K);
+  Arb partial;
+  for (ulong k = 1; k <= K; ++k) {
+    ArcTerm t;
+    t.k = k;
+    t.coefficient = coeffs[k - 1];
+    fmpq_add(out.coefficient_partial_sum.get(), out.coefficient_partial_sum.get(), t.coefficient.get());
+    arb_mul_fmpz(t.term.get(), out.singular_integral.get(), fmpq_numref(t.coefficient.get()), prec);
+    arb_div_fmpz(t.term.get(), t.term.get(), fmpq_denref(t.coefficient.get()), prec);
+    // The partial sum is σ_∞ times the exact partial sum (no accumulated rounding).
+    arb_mul_fmpz(t.partial_sum.get(), out.singular_integral.get(),
+                 fmpq_numref(out.coefficient_partial_sum.get()), prec);
+    arb_div_fmpz(t.partial_sum.get(), t.partial_sum.get(), fmpq_denref(out.coefficient_partial_sum.get()), prec);
+    out.terms.push_back(std::move(t));
+  }
+  out.tail = arc_tail_bound(model, n, coeffs, prec);
+
+  // σ_∞·T, as an upper bound
+  Arb st;
+  arb_mul(st.get(), out.singular_integral.get(), out.tail.coefficient_tail.get(), prec);
+  arf_t up;
+  arf_init(up);
+  arb_get_ubound_arf(up, st.get(), prec);
+  arb_set_arf(out.term_tail.get(), up);
+  arf_clear(up);
+  // M(n) ∈ σ_∞·Σ_{k≤K} f(k) ± σ_∞·T
+  arb_set(out.enclosure.get(), out.terms.back().partial_sum.get());
+  arb_add_error(out.enclosure.get(), out.term_tail.get());
+  return out;
+}
+
+}  // namespace circlet
