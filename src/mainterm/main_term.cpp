@@ -1,0 +1,292 @@
+// Assembly of M(n) = σ_∞(X) Π_p β_p(n); the formulas are in main_term.hpp.
+#include "mainterm/main_term.hpp"
+
+#include <flint/fmpz_factor.h>
+#include <flint/ulong_extras.h>
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <mutex>
+
+#include "core/error.hpp"
+#include "mainterm/dirichlet_l.hpp"
+#include "mainterm/singular_integral.hpp"
+#include "quadratic/local_density.hpp"
+
+namespace circlet {
+
+namespace {
+
+void add_prime_factors(std::vector<ulong>& primes, const fmpz_t x) {
+  if (fmpz_is_zero(x)) return;
+  fmpz_factor_t fac;
+  fmpz_factor_init(fac);
+  fmpz_factor(fac, x);
+  for (slong i = 0; i < fac->num; ++i) {
+    CIRCLET_ASSERT(fmpz_abs_fits_ui(fac->p + i), "main_term: prime factor beyond a word");
+    primes.push_back(fmpz_get_ui(fac->p + i));
+  }
+  fmpz_factor_clear(fac);
+}
+
+int valuation(const Fmpq& X, ulong p) {
+  Fmpz pp = Fmpz::from_ui(p), q;
+  int v = 0;
+  fmpz_set(q.get(), fmpq_numref(X.get()));
+  while (fmpz_divisible(q.get(), pp.get())) {
+    fmpz_divexact(q.get(), q.get(), pp.get());
+    ++v;
+  }
+  fmpz_set(q.get(), fmpq_denref(X.get()));
+  while (fmpz_divisible(q.get(), pp.get())) {
+    fmpz_divexact(q.get(), q.get(), pp.get());
+    --v;
+  }
+  return v;
+}
+
+// 1 − c·p^{−e} as an exact rational.
+Fmpq one_minus_chi_over(int c, ulong p, ulong e) {
+  Fmpz pe;
+  fmpz_ui_pow_ui(pe.get(), p, e);
+  Fmpq q;
+  fmpq_set_si(q.get(), -c, 1);
+  fmpq_div_fmpz(q.get(), q.get(), pe.get());
+  fmpq_add_si(q.get(), q.get(), 1);
+  return q;
+}
+
+// The fixed-character data of an even-rank family, cached (R costs O(f·w)).
+struct EvenRankData {
+  Fmpz d0;
+  Fmpq g;
+  Fmpq R;
+};
+
+const EvenRankData& even_rank_data(const QuadraticModel& model) {
+  static std::mutex mu;
+  static std::map<std::pair<int, int>, EvenRankData> cache;
+  std::lock_guard<std::mutex> lock(mu);
+  auto key = std::make_pair(static_cast<int>(model.family.kind), model.family.t);
+  auto it = cache.find(key);
+  if (it != cache.end()) return it->second;
+  ulong w = model.rank / 2;
+  Fmpq D = model.det_gram;
+  if (w % 2 == 1) fmpq_neg(D.get(), D.get());
+  EvenRankData data;
+  data.d0 = fundamental_discriminant(D);
+  data.g = discriminant_cofactor(D, data.d0);
+  data.R = dirichlet_l_rational(data.d0, w);
+  return cache.emplace(key, std::move(data)).first->second;
+}
+
+// The special primes: p | 2·t·d0 and p | num(X)·den(X), sorted, distinct.
+std::vector<ulong> special_primes(const QuadraticModel& model, const Fmpq& X, const Fmpz& d0) {
+  std::vector<ulong> primes = {2};
+  Fmpz t(model.family.t);
+  add_prime_factors(primes, t.get());
+  add_prime_factors(primes, d0.get());
+  add_prime_factors(primes, fmpq_numref(X.get()));
+  add_prime_factors(primes, fmpq_denref(X.get()));
+  std::sort(primes.begin(), primes.end());
+  primes.erase(std::unique(primes.begin(), primes.end()), primes.end());
+  return primes;
+}
+
+}  // namespace
+
+void check_main_term_input(const QuadraticModel& model, const Fmpz& n) {
+  if (model.rank < 2)
+    throw UserError("the main term needs rank ≥ 2, but " + model.family.name() + " has rank " +
+                    std::to_string(model.rank));
+  if (fmpz_sgn(n.get()) < 0) throw UserError("n must be non-negative, got " + n.str());
+  Fmpq X = model.X(n);
+  if (fmpq_sgn(X.get()) <= 0)
+    throw UserError("X = n + Δ must be positive for the main term; n = " + n.str() + " gives X = " + X.str());
+}
+
+MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const MainTermOptions& options) {
+  check_main_term_input(model, n);
+  MainTerm out;
+  MainTermParts& P = out.parts;
+  const int r = model.rank;
+  const bool even = r % 2 == 0;
+  const ulong s = even ? r / 2 : (r - 1) / 2;
+  P.X = model.X(n);
+  P.rank = r;
+  P.det_gram = model.det_gram;
+  P.L_argument = s;
+
+  const EvenRankData* ed = nullptr;
+  if (even) {
+    ed = &even_rank_data(model);
+    if (fmpz_is_one(ed->d0.get()) && s == 1)
+      throw UserError("the main term of " + model.family.name() + " involves ζ(1): no main term of this shape");
+    P.discriminant = ed->d0;
+    P.cofactor = ed->g;
+  } else {
+    // D = (−1)^k det S · X; its squarefree kernel fixes the character (MATH.md §5).
+    Fmpq D;
+    fmpq_mul(D.get(), model.det_gram.get(), P.X.get());
+    if (s % 2 == 1) fmpq_neg(D.get(), D.get());
+    P.discriminant = fundamental_discriminant(D);
+    P.cofactor = discriminant_cofactor(D, P.discriminant);
+  }
+
+  // Special primes and the correction C.
+  std::vector<ulong> primes = special_primes(model, P.X, P.discriminant);
+  Fmpq C(1);
+  for (ulong p : primes) {
+    SpecialPrimeFactor sp;
+    sp.p = p;
+    sp.valuation = valuation(P.X, p);
+    sp.beta = local_density(model, n, p);
+    sp.chi = kronecker_symbol(P.discriminant, Fmpz::from_ui(p));
+    if (even) {
+      // β_p / (1 − χ(p) p^{−w})
+      fmpq_div(sp.correction.get(), sp.beta.get(), one_minus_chi_over(sp.chi, p, s).get());
+    } else {
+      // β_p (1 − χ(p) p^{−k}) / (1 − p^{−2k})
+      fmpq_mul(sp.correction.get(), sp.beta.get(), one_minus_chi_over(sp.chi, p, s).get());
+      fmpq_div(sp.correction.get(), sp.correction.get(), one_minus_chi_over(1, p, 2 * s).get());
+    }
+    fmpq_mul(C.get(), C.get(), sp.correction.get());
+    P.special.push_back(std::move(sp));
+  }
+  P.correction = C;
+
+  Fmpz f;
+  fmpz_abs(f.get(), P.discriminant.get());
+  const bool exact_route = even || fmpz_cmp_ui(f.get(), options.max_exact_conductor) <= 0;
+  const bool need_balls = options.with_parts || !exact_route;
+  if (need_balls) singular_integral(P.sigma_inf.get(), r, model.det_gram, P.X, prec);
+
+  if (exact_route) {
+    Fmpq R = even ? ed->R : dirichlet_l_rational(P.discriminant, s);
+    P.L_rational = R;
+    P.L_route = "exact: generalised Bernoulli number B_{k,χ} (conductor " + f.str() + ")";
+    if (need_balls) dirichlet_l_from_rational(P.L_value.get(), R, P.discriminant, s, prec);
+    Fmpq M;
+    Fmpz xpow, fac;
+    if (even) {
+      // M = X^{w−1} C / ((w−1)! R g)
+      fmpq_pow_si(M.get(), P.X.get(), (slong)s - 1);
+      fmpq_mul(M.get(), M.get(), C.get());
+      fmpz_fac_ui(fac.get(), s - 1);
+      fmpq_div_fmpz(M.get(), M.get(), fac.get());
+      fmpq_div(M.get(), M.get(), R.get());
+      fmpq_div(M.get(), M.get(), P.cofactor.get());
+    } else {
+      // M = X^k 4^k k! R C / ((2k)! Z f g)
+      fmpq_pow_si(M.get(), P.X.get(), (slong)s);
+      fmpq_mul_2exp(M.get(), M.get(), 2 * s);
+      fmpz_fac_ui(fac.get(), s);
+      fmpq_mul_fmpz(M.get(), M.get(), fac.get());
+      fmpq_mul(M.get(), M.get(), R.get());
+      fmpq_mul(M.get(), M.get(), C.get());
+      fmpz_fac_ui(fac.get(), 2 * s);
+      fmpq_div_fmpz(M.get(), M.get(), fac.get());
+      fmpq_div(M.get(), M.get(), zeta_even_rational(s).get());
+      fmpq_div_fmpz(M.get(), M.get(), f.get());
+      fmpq_div(M.get(), M.get(), P.cofactor.get());
+    }
+    arb_set_fmpq(out.ball.get(), M.get(), prec);
+    out.exact = std::move(M);
+    return out;
+  }
+
+  // Ball route (odd rank, large conductor): σ_∞ · L(k, χ)/ζ(2k) · C.
+  if (s >= 2) {
+    ulong Pmax = dirichlet_l_euler_bound(s, prec, options.max_euler_prime);
+    dirichlet_l_euler(P.L_value.get(), P.discriminant, s, Pmax, prec);
+    P.L_route = "ball: Euler product over p ≤ " + std::to_string(Pmax) + " with rigorous tail bound";
+  } else {
+    arb_indeterminate(P.L_value.get());
+    P.L_route = "unavailable: L(1, χ) with conductor " + f.str() + " above the exact-route limit";
+  }
+  if (C.is_zero()) {
+    // A local obstruction: M(n) = 0 exactly, whatever the L-value.
+    out.exact = Fmpq(0);
+    arb_zero(out.ball.get());
+    return out;
+  }
+  Arb z;
+  arb_zeta_ui(z, 2 * s, prec + 10);
+  arb_mul(out.ball.get(), P.sigma_inf.get(), P.L_value.get(), prec + 10);
+  arb_div(out.ball.get(), out.ball.get(), z, prec + 10);
+  Arb c;
+  arb_set_fmpq(c, C.get(), prec + 10);
+  arb_mul(out.ball.get(), out.ball.get(), c, prec);
+  return out;
+}
+
+CertifiedMainTerm main_term_certified(const QuadraticModel& model, const Fmpz& n, slong digits, slong max_prec,
+                                      const MainTermOptions& options) {
+  CertifiedMainTerm res;
+  const slong want_bits = (slong)std::ceil(digits * 3.3219280948873623) + 1;
+  slong prec = want_bits + 20;
+  for (;;) {
+    res.term = main_term(model, n, prec, options);
+    res.prec = prec;
+    if (res.term.exact) {
+      res.certified = true;
+      return res;
+    }
+    if (arb_rel_accuracy_bits(res.term.ball.get()) >= want_bits) {
+      res.certified = true;
+      return res;
+    }
+    if (prec >= max_prec) return res;
+    prec = std::min(2 * prec, max_prec);
+  }
+}
+
+double main_term_fast(const QuadraticModel& model, const Fmpz& n, ulong euler_prime) {
+  check_main_term_input(model, n);
+  if (model.rank % 2 == 0) {
+    MainTermOptions o;
+    o.with_parts = false;
+    MainTerm m = main_term(model, n, 64, o);
+    return fmpq_get_d(m.exact->get());
+  }
+  // Odd rank: σ_∞ · Π_{p≤P} (1 − χ(p)p^{−k})^{−1} / ζ(2k) · C in double (NOT CERTIFIED).
+  MainTermOptions o;
+  o.with_parts = false;
+  o.max_exact_conductor = 0;       // no O(f) work
+  o.max_euler_prime = 2;           // the ball L-value is not used here
+  const int r = model.rank;
+  const ulong k = (r - 1) / 2;
+  MainTerm m = main_term(model, n, 32, o);
+  if (m.exact) return fmpq_get_d(m.exact->get());
+  static std::vector<ulong> primes;
+  static ulong primes_to = 0;
+  static std::mutex mu;
+  {
+    std::lock_guard<std::mutex> lock(mu);
+    if (primes_to < euler_prime) {
+      primes.clear();
+      n_primes_t it;
+      n_primes_init(it);
+      for (ulong p = n_primes_next(it); p <= euler_prime; p = n_primes_next(it)) primes.push_back(p);
+      n_primes_clear(it);
+      primes_to = euler_prime;
+    }
+  }
+  const slong d = fmpz_get_si(m.parts.discriminant.get());
+  double L = 1.0;
+  for (ulong p : primes) {
+    if (p > euler_prime) break;
+    int c = kronecker_symbol(d, p);
+    if (c) L /= 1.0 - c * std::pow((double)p, -(double)k);
+  }
+  const double X = fmpq_get_d(m.parts.X.get());
+  const double det = fmpq_get_d(model.det_gram.get());
+  const double sigma = std::exp(0.5 * r * std::log(M_PI) + (0.5 * r - 1) * std::log(X) - std::lgamma(0.5 * r) -
+                                0.5 * std::log(det));
+  // ζ(2k) = Z π^{2k}
+  const double z = fmpq_get_d(zeta_even_rational(k).get()) * std::pow(M_PI, 2.0 * (double)k);
+  return sigma * L / z * fmpq_get_d(m.parts.correction.get());
+}
+
+}  // namespace circlet

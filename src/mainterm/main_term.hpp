@@ -1,0 +1,95 @@
+#pragma once
+// The circle-method main term M(n) = σ_∞(X) · Π_p β_p(n) of a family
+// (MATH.md §3 and §5), exact where the mathematics makes it rational.
+//
+// Let w = r/2 and let S be the set of special primes: p | 2·t·d0 and p | X
+// (numerator or denominator). Outside S every β_p is a quadratic-character
+// Euler factor (MATH.md §4):
+//
+//  * r even, χ = χ_{d0}, d0 = disc. of Q(sqrt((−1)^w det S)) (fixed by the family):
+//      Π_p β_p = C / L(w, χ),   C = Π_{p∈S} β_p / (1 − χ(p) p^{−w}).
+//    With L(w, χ) = R π^w / sqrt(f) and det S = f g², the π's and roots cancel:
+//      M(n) = X^{w−1} · C / ((w−1)! · R · g)                     (exact rational)
+//  * r odd, k = (r−1)/2, χ = χ_{d0}, d0 = disc. of Q(sqrt((−1)^k det S · X)) (depends on n):
+//      Π_p β_p = C · L(k, χ)/ζ(2k),   C = Π_{p∈S} β_p (1 − χ(p)p^{−k}) / (1 − p^{−2k}).
+//    With L(k, χ) = R π^k/sqrt(f), ζ(2k) = Z π^{2k}, Γ(k + 1/2) = (2k)! sqrt(π)/(4^k k!)
+//    and X det S = f g²:
+//      M(n) = X^k · 4^k k! · R · C / ((2k)! · Z · f · g)          (exact rational)
+//    when f is small enough for the Bernoulli route; otherwise a ball
+//    σ_∞ · L(k, χ)/ζ(2k) · C with L from its Euler product (k ≥ 2).
+//    For r = 3 (weight 3/2) L(1, χ) is a class number: M(n) is exact whenever
+//    the conductor is below the limit, and indeterminate beyond it.
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/flint_types.hpp"
+#include "quadratic/model.hpp"
+
+namespace circlet {
+
+/// One special prime's contribution.
+struct SpecialPrimeFactor {
+  ulong p = 0;
+  int valuation = 0;  // v_p(X) (negative when p divides the denominator of X)
+  Fmpq beta;          // β_p(n), exact (local_density.hpp)
+  int chi = 0;        // χ(p) of the L-value's character
+  Fmpq correction;    // this prime's factor of C (see the header comment)
+};
+
+/// Every ingredient of M(n), for display (`--explain`) and for other stages.
+struct MainTermParts {
+  Fmpq X;
+  int rank = 0;
+  Fmpq det_gram;
+  Arb sigma_inf;          // σ_∞(X)
+  Fmpz discriminant;      // d0: the character is the Kronecker symbol (d0/·)
+  Fmpq cofactor;          // g: |(−1)^w det S| = f g² (even r) or X det S = f g² (odd r)
+  ulong L_argument = 0;   // s in L(s, χ): w (even r) or k (odd r)
+  std::optional<Fmpq> L_rational;  // R with L(s, χ) = R π^s / sqrt(f), when computed
+  Arb L_value;            // L(s, χ) as a ball
+  std::string L_route;    // how L was obtained
+  std::vector<SpecialPrimeFactor> special;
+  Fmpq correction;        // C = product of the special primes' corrections
+};
+
+struct MainTerm {
+  std::optional<Fmpq> exact;  // present when M(n) was obtained as an exact rational
+  Arb ball;                   // always set; contains M(n) (the exact value when exact is set)
+  MainTermParts parts;
+};
+
+struct MainTermOptions {
+  /// Largest conductor for the exact (Bernoulli) route of odd-rank L-values: cost O(f).
+  ulong max_exact_conductor = 2000000;
+  /// Largest prime of the Euler product for the ball route.
+  ulong max_euler_prime = 10000000;
+  /// Compute σ_∞ and the L-value balls even on the exact path (for --explain).
+  bool with_parts = true;
+};
+
+/// Throws UserError when the family's rank is below 2 (no main term of this
+/// shape) or when X = n + Δ ≤ 0.
+void check_main_term_input(const QuadraticModel& model, const Fmpz& n);
+
+/// M(n) at working precision `prec` (bits).
+MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const MainTermOptions& options = {});
+
+struct CertifiedMainTerm {
+  MainTerm term;
+  bool certified = false;  // true: exact, or the ball has ≥ `digits` correct significant digits
+  slong prec = 0;          // the last precision tried
+};
+
+/// Raises the precision (doubling from about digits·log2(10) + 20 bits up to
+/// max_prec) until the ball has relative accuracy of `digits` decimal digits.
+/// Gives up and reports certified = false rather than looping.
+CertifiedMainTerm main_term_certified(const QuadraticModel& model, const Fmpz& n, slong digits,
+                                      slong max_prec = 4096, const MainTermOptions& options = {});
+
+/// NOT CERTIFIED: a floating-point approximation for bulk tables and plots.
+/// Exact rational converted to double for even rank; for odd rank σ_∞ and the
+/// truncated Euler product over p ≤ euler_prime in double (no tail bound).
+double main_term_fast(const QuadraticModel& model, const Fmpz& n, ulong euler_prime = 20000);
+
+}  // namespace circlet

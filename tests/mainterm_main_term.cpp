@@ -1,0 +1,246 @@
+// Tests for src/mainterm/main_term.hpp: M(n) against exact counts and
+// published formulas. Exact counts come from the series engine (src/series/);
+// sums of squares and the CM form η(τ)³η(7τ)³ are expanded independently here.
+#include "mainterm/main_term.hpp"
+
+#include <catch2/catch.hpp>
+#include <cmath>
+#include <cstdint>
+#include <vector>
+
+#include "core/error.hpp"
+#include "mainterm/class_number.hpp"
+#include "mainterm/dirichlet_l.hpp"
+#include "quadratic/model.hpp"
+#include "series/eta_series.hpp"
+
+using namespace circlet;
+
+namespace {
+
+QuadraticModel model_of(const char* name) { return quadratic_model(Family::parse(name)); }
+
+Fmpq exact_main(const QuadraticModel& m, long n) {
+  MainTermOptions o;
+  o.with_parts = false;
+  MainTerm t = main_term(m, Fmpz(n), 64, o);
+  REQUIRE(t.exact.has_value());
+  return *t.exact;
+}
+
+// r_S(n), n ≤ N, by expanding θ(q)^S with θ = 1 + 2Σ q^{k²} (arithmetic mod 2^64,
+// exact because every r_S(n) here is far below 2^63).
+std::vector<int64_t> squares_counts(int S, long N) {
+  std::vector<uint64_t> theta(N + 1, 0), acc(N + 1, 0);
+  theta[0] = 1;
+  for (long k = 1; k * k <= N; ++k) theta[k * k] = 2;
+  acc[0] = 1;
+  for (int s = 0; s < S; ++s) {
+    std::vector<uint64_t> next(N + 1, 0);
+    for (long i = 0; i <= N; ++i)
+      if (acc[i])
+        for (long k = 0; k * k + i <= N; ++k) next[i + k * k] += acc[i] * theta[k * k];
+    acc.swap(next);
+  }
+  return std::vector<int64_t>(acc.begin(), acc.end());
+}
+
+}  // namespace
+
+TEST_CASE("main term: input errors are user errors with a clear message", "[mainterm][main_term][errors]") {
+  CHECK_THROWS_WITH(main_term(model_of("sq1"), Fmpz(5), 64), Catch::Contains("needs rank ≥ 2"));
+  CHECK_THROWS_WITH(main_term(model_of("c5"), Fmpz(-1), 64), Catch::Contains("n must be non-negative"));
+  CHECK_THROWS_AS(main_term(model_of("sq4"), Fmpz(0), 64), UserError);
+}
+
+TEST_CASE("main term: c_5 equals the count and the divisor sum for n ≤ 5000", "[mainterm][main_term]") {
+  // No cusp forms of this weight and level: c_5(n) = Σ_{d | n+1} (d/5) (n+1)/d
+  // (F. Garvan, D. Kim, D. Stanton, "Cranks and t-cores", Invent. Math. 101 (1990),
+  // 1–17; formula quoted from memory, independently checked here against the series).
+  const long N = 5000;
+  IntegerSeries c = family_series(Family::parse("c5"), N);
+  QuadraticModel m = model_of("c5");
+  for (long n = 0; n <= N; ++n) {
+    long s = 0;
+    for (long d = 1; d <= n + 1; ++d)
+      if ((n + 1) % d == 0) s += kronecker_symbol(d, 5) * ((n + 1) / d);
+    INFO("n = " << n);
+    REQUIRE(c.value(n) == Fmpz(s));
+    REQUIRE(exact_main(m, n) == Fmpq(c.value(n)));
+  }
+}
+
+TEST_CASE("main term: c_7 remainder is the CM form eta(t)^3 eta(7t)^3", "[mainterm][main_term]") {
+  // 8 (c_7(n) − M(n)) = −a(n+2), Σ a(m) q^m = η(τ)³η(7τ)³ = q Π (1 − q^k)³ (1 − q^{7k})³
+  // (MATH.md §3; note the q-power of η(τ)³η(7τ)³ is q^{(3+21)/24} = q¹, so a(n+2)
+  // is the coefficient of q^{n+1} of the product). The product is expanded here
+  // factor by factor (mod 2^64: the a(m) are small).
+  const long N = 3000;
+  std::vector<uint64_t> a(N + 3, 0);
+  const long L = N + 2;
+  a[0] = 1;  // series without the q² shift
+  for (long k = 1; k <= L; ++k)
+    for (int d : {1, 7})
+      if (d * k <= L)
+        for (int rep = 0; rep < 3; ++rep)
+          for (long i = L; i >= d * k; --i) a[i] -= a[i - d * k];
+  IntegerSeries c = family_series(Family::parse("c7"), N);
+  QuadraticModel m = model_of("c7");
+  int zero_cases = 0;
+  for (long n = 0; n <= N; ++n) {
+    Fmpq diff(c.value(n));
+    fmpq_sub(diff.get(), diff.get(), exact_main(m, n).get());
+    fmpq_mul_si(diff.get(), diff.get(), 8);
+    int64_t am = (int64_t)a[n + 1];  // a(n+2): coefficient of q^{n+1} of the unshifted product
+    INFO("n = " << n);
+    REQUIRE(diff == Fmpq(-am));
+    zero_cases += am == 0;
+  }
+  CHECK(zero_cases > 0);  // c_7(n) = M(n) does happen (n + 2 not represented by x² + xy + 2y²)
+}
+
+TEST_CASE("main term: sums of squares r_S = M for S = 5..8, Jacobi for r_4 and r_8", "[mainterm][main_term]") {
+  // Hardy (1920): for 5 ≤ S ≤ 8 the singular series gives r_S(n) exactly
+  // (G. H. Hardy, "On the representation of a number as the sum of any number of
+  // squares, and in particular of five", Trans. AMS 21 (1920); E. Grosswald,
+  // Representations of Integers as Sums of Squares, Springer 1985, ch. 9).
+  // Jacobi: r_4(n) = 8 Σ_{d | n, 4 ∤ d} d;  r_8(n) = 16 Σ_{d | n} (−1)^{n+d} d³ (Grosswald ch. 9).
+  const long N = 500;
+  for (int S = 4; S <= 8; ++S) {
+    std::vector<int64_t> r = squares_counts(S, N);
+    QuadraticModel m = model_of(("sq" + std::to_string(S)).c_str());
+    for (long n = 1; n <= N; ++n) {
+      INFO("S = " << S << ", n = " << n);
+      if (S >= 5) REQUIRE(exact_main(m, n) == Fmpq(r[n]));
+      if (S == 4) {
+        long j = 0;
+        for (long d = 1; d <= n; ++d)
+          if (n % d == 0 && d % 4 != 0) j += 8 * d;
+        REQUIRE(r[n] == j);
+        REQUIRE(exact_main(m, n) == Fmpq(j));  // weight 2: no cusp forms for Γ0(4) either
+      }
+      if (S == 8) {
+        long j = 0;
+        for (long d = 1; d <= n; ++d)
+          if (n % d == 0) j += 16 * (((n + d) % 2) ? -1 : 1) * d * d * d;
+        REQUIRE(r[n] == j);
+      }
+    }
+  }
+}
+
+namespace {
+
+void check_c4(long N) {
+  IntegerSeries c = family_series(Family::parse("c4"), N);
+  QuadraticModel m = model_of("c4");
+  std::vector<long> exceptions;
+  for (long n = 0; n <= N; ++n) {
+    Fmpq M = exact_main(m, n);
+    if (M != Fmpq(c.value(n))) exceptions.push_back(n);
+    // Ono–Sze: c_4(n) = h(−32n − 20)/2 when 8n + 5 is squarefree (K. Ono and
+    // L. Sze, "4-core partitions and class numbers", Acta Arith. 80 (1997), 249–272).
+    if (n_is_squarefree((ulong)(8 * n + 5))) {
+      Fmpz h = class_number(-32 * n - 20);
+      fmpz_fdiv_q_2exp(h.get(), h.get(), 1);
+      INFO("n = " << n);
+      CHECK(c.value(n) == h);
+    }
+  }
+  INFO("n with c_4(n) != M(n): " << exceptions.size() << (exceptions.empty() ? "" : ", first " + std::to_string(exceptions[0])));
+  CHECK(exceptions.empty());
+}
+
+}  // namespace
+
+TEST_CASE("main term: c_4 (weight 3/2) equals the count, n ≤ 400", "[mainterm][main_term]") { check_c4(400); }
+TEST_CASE("main term: c_4 (weight 3/2) equals the count, n ≤ 2000", "[mainterm][main_term][slow]") { check_c4(2000); }
+
+TEST_CASE("main term: sq3 is 12(H(4n) − 2H(n)) and equals r_3", "[mainterm][main_term]") {
+  std::vector<int64_t> r = squares_counts(3, 300);
+  QuadraticModel m = model_of("sq3");
+  for (long n = 1; n <= 300; ++n) {
+    INFO("n = " << n);
+    CHECK(exact_main(m, n) == Fmpq(r[n]));
+  }
+}
+
+TEST_CASE("main term: the exact rational lies in the ball path; two precisions overlap", "[mainterm][main_term]") {
+  MainTermOptions ball_only;
+  ball_only.max_exact_conductor = 0;  // force the Euler-product route for odd rank
+  ball_only.max_euler_prime = 100000;
+  for (const char* name : {"c6", "sc11", "sq5", "c8", "sc13", "sq7", "c10"}) {
+    QuadraticModel m = model_of(name);
+    for (long n : {1L, 17L, 100L, 1001L, 4096L}) {
+      MainTerm ex = main_term(m, Fmpz(n), 128);
+      REQUIRE(ex.exact.has_value());
+      MainTerm lo = main_term(m, Fmpz(n), 30, ball_only);
+      MainTerm hi = main_term(m, Fmpz(n), 60, ball_only);
+      Arb e;
+      arb_set_fmpq(e, ex.exact->get(), 200);
+      INFO(name << " n = " << n << ": exact " << ex.exact->str() << " lo " << lo.ball.str() << " hi " << hi.ball.str());
+      CHECK(arb_contains(lo.ball, e));
+      CHECK(arb_contains(hi.ball, e));
+      CHECK(arb_overlaps(lo.ball, hi.ball));
+      CHECK(arb_rel_accuracy_bits(hi.ball) >= 16);  // floor: tail ε ≈ 2.5/(P log P) for k = 2, P = 10^5
+      // the exact path's parts multiply back to the exact value
+      Arb prod, z;
+      arb_mul(prod, ex.parts.sigma_inf, ex.parts.L_value, 128);
+      if (m.rank % 2 == 1) {
+        arb_zeta_ui(z, m.rank - 1, 128);
+        arb_div(prod, prod, z, 128);
+      } else {
+        arb_inv(prod, ex.parts.L_value, 128);
+        arb_mul(prod, prod, ex.parts.sigma_inf, 128);
+      }
+      arb_set_fmpq(z, ex.parts.correction.get(), 128);
+      arb_mul(prod, prod, z, 128);
+      CHECK(arb_contains(prod, e));
+    }
+  }
+  // even rank: the exact value inside the assembled ball of its own parts
+  for (const char* name : {"c5", "c9", "sc9", "sq6", "c11", "sc8"}) {
+    QuadraticModel m = model_of(name);
+    MainTerm lo = main_term(m, Fmpz(777), 64), hi = main_term(m, Fmpz(777), 200);
+    CHECK(arb_overlaps(lo.ball, hi.ball));
+  }
+}
+
+TEST_CASE("main term: certified digits are reached, or failure is reported", "[mainterm][main_term]") {
+  QuadraticModel m = model_of("c6");
+  MainTermOptions o;
+  o.max_exact_conductor = 0;
+  o.max_euler_prime = 1000000;
+  // k = 2, P = 10^6: tail ε ≈ 1.26·2/(log P · P) ≈ 1.8e−7, so 6 digits are reachable, 40 are not.
+  CertifiedMainTerm c = main_term_certified(m, Fmpz(1000000), 6, 512, o);
+  CHECK(c.certified);
+  CHECK(arb_rel_accuracy_bits(c.term.ball) >= 20);
+  CertifiedMainTerm d = main_term_certified(m, Fmpz(1000000), 40, 512, o);  // beyond the Euler cap
+  CHECK(!d.certified);
+  CHECK(d.prec == 512);
+  CertifiedMainTerm e = main_term_certified(model_of("c9"), Fmpz::from_str("1000000000000000000"), 30);
+  CHECK(e.certified);
+}
+
+TEST_CASE("main term: |count − M| is below a generous multiple of X^{w/2} (sanity, not a proof)",
+          "[mainterm][main_term]") {
+  // Hecke's bound says the cusp part is O(n^{w/2}); this only checks the size,
+  // with a constant far above what is observed. The main term here is the
+  // floating path (NOT CERTIFIED), which is enough for a size check.
+  const long N = 5000;
+  for (int t = 6; t <= 12; ++t)
+    for (const std::string& name : {"c" + std::to_string(t), "sc" + std::to_string(2 * t - 1)}) {
+      Family fam = Family::parse(name);
+      QuadraticModel m = quadratic_model(fam);
+      IntegerSeries c = family_series(fam, N);
+      double worst = 0;
+      for (long n = 1; n <= N; n += (n < 200 ? 1 : 37)) {
+        double M = main_term_fast(m, Fmpz(n), 3000);
+        double X = fmpq_get_d(m.X(Fmpz(n)).get());
+        double e = std::fabs(fmpz_get_d(c.value(n).get()) - M) / std::pow(X, 0.25 * m.rank);
+        worst = std::max(worst, e);
+      }
+      INFO(name << ": max |count − M| / X^{w/2} = " << worst);
+      CHECK(worst < 5.0);  // observed ≤ 0.14 (c6) for n ≤ 5000
+    }
+}
