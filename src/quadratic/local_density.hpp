@@ -4,6 +4,8 @@
 //
 //   β_p(n) = lim_j N_j(n) / p^{j(r−1)},  N_j(n) = #{x mod p^j : P(x) ≡ n (mod p^j)}
 //   (for c_t: x ∈ (Z/p^j)^t with Σ x_i ≡ 0, normalised by p^{j(t−2)}).
+#include <vector>
+
 #include "core/flint_types.hpp"
 #include "quadratic/model.hpp"
 
@@ -28,5 +30,43 @@ Fmpq local_arc_piece(const QuadraticModel& model, const Fmpz& n, ulong p, int j)
 /// True when p | 2t (or p = 2 for sq_S), i.e. a prime where the closed forms
 /// for good primes do not apply; primes dividing X are handled by every form.
 bool is_structural_prime(const QuadraticModel& model, ulong p);
+
+// ---------------------------------------------------------------------------
+// Additions for assembling Π_p β_p (MATH.md §5) and for the counting reference.
+//
+// Every function above and below throws UserError when p is not prime, when the
+// family has rank 0 (c1, sc1), or when X = n + Δ = 0 (the density diverges there).
+
+/// The normalised count N_j(n)/p^{j(r−1)} from the closed forms (no counting), j ≥ 0.
+/// Equals Σ_{i≤j} local_arc_piece(i) and equals local_density for j ≥ the stable exponent.
+Fmpq local_density_level(const QuadraticModel& model, const Fmpz& n, ulong p, int j);
+
+/// The finite set of primes (ascending) at which β_p(n) may differ from the generic
+/// factor: the structural primes (p | 2t; p = 2 for sq_S) and the primes dividing the
+/// numerator of X = n + Δ in lowest terms. Factors X with FLINT.
+std::vector<ulong> local_density_special_primes(const QuadraticModel& model, const Fmpz& n);
+
+/// The discriminant D of the quadratic character χ(p) = (D/p) (Kronecker symbol) that
+/// fixes β_p at every prime outside local_density_special_primes(model, n):
+///   r even:  β_p(n) = 1 − (D/p)·p^{−r/2},     D from (−1)^{r/2}·det S   (independent of n)
+///   r odd:   β_p(n) = 1 + (D/p)·p^{(1−r)/2},  D from (−1)^{(r−1)/2}·det S·X (depends on n)
+/// D is the fundamental discriminant of Q(√d), d the squarefree kernel of that rational
+/// number (d = 1 gives D = 1, the trivial character). For such p, (D/p) ≠ 0.
+/// c_t, t odd: D = (−1)^{(t−1)/2}·t made fundamental; sc_t and sq_S of even rank: D = 1 or −4.
+Fmpz local_character_discriminant(const QuadraticModel& model, const Fmpz& n);
+
+/// The generic factor at a prime p outside the special primes, from D above:
+/// 1 − (D/p)p^{−r/2} (r even), 1 + (D/p)p^{(1−r)/2} (r odd). Throws UserError if p is special.
+Fmpq local_density_generic_factor(const QuadraticModel& model, const Fmpz& n, ulong p);
+
+/// Counting reference: entry c (0 ≤ c < p^j) is #{x mod p^j : P(x) ≡ c (mod p^j)} (with
+/// Σx ≡ 0 for c_t). Separable forms (sc_t, sq_S) multiply one-variable histograms; c_t at
+/// p ∤ t is first block-diagonalised over Z/p^j by unimodular column operations; c_t at
+/// p | t uses local_value_counts_literal. Throws UserError when p^j is too large.
+std::vector<Fmpz> local_value_counts(const QuadraticModel& model, ulong p, int j);
+
+/// The same table for c_t by the literal definition (dynamic programming over the t
+/// coordinates with state (P mod p^j, Σx mod p^j)); small p^j only (t·p^{3j} ≲ 4·10^8).
+std::vector<Fmpz> local_value_counts_literal(const QuadraticModel& model, ulong p, int j);
 
 }  // namespace circlet
