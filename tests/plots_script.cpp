@@ -1,0 +1,209 @@
+// scripts/plot.py (the standard pictures) run on real output of the circlet
+// binary: each plot kind renders a PNG of exactly plot.py's FIGSIZE × DPI =
+// 800 × 600 pixels, and its SVG variant carries the expected axis labels.
+// Skipped with a visible WARN when /usr/bin/python3 cannot import matplotlib
+// (Debian package python3-matplotlib).
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <catch2/catch.hpp>
+#include <cstdio>
+#include <cstdlib>
+#include <fstream>
+#include <sstream>
+#include <string>
+
+namespace {
+
+const std::string kPython = "/usr/bin/python3";
+const std::string kPlot = std::string(CIRCLET_SOURCE_DIR) + "/scripts/plot.py";
+const std::string kCirclet = CIRCLET_BINARY;
+constexpr unsigned kWidth = 800, kHeight = 600;  // plot.py: FIGSIZE (8, 6) in at DPI 100
+
+int run(const std::string& cmd) {
+  int rc = std::system(cmd.c_str());
+  return WIFEXITED(rc) ? WEXITSTATUS(rc) : -1;
+}
+
+bool have_matplotlib() {
+  static const bool ok = run(kPython + " -c 'import matplotlib, matplotlib.pyplot' >/dev/null 2>&1") == 0;
+  return ok;
+}
+
+/// Is `name` a subcommand of the built binary? (Commands land one by one.)
+bool have_command(const std::string& name) {
+  // `circlet NAME --help` exits 0 even for an unknown NAME (the top-level help), so read the list.
+  return run(kCirclet + " --help 2>/dev/null | grep -qE '^  " + name + " '") == 0;
+}
+
+std::string slurp(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::stringstream ss;
+  ss << in.rdbuf();
+  return ss.str();
+}
+
+/// A fresh directory for one test case's files, removed at the end of the case.
+struct TempDir {
+  std::string path;
+  TempDir() {
+    char tmpl[] = "/tmp/circlet-plots-XXXXXX";
+    char* d = ::mkdtemp(tmpl);
+    if (d) path = d;
+  }
+  ~TempDir() {
+    if (!path.empty()) run("rm -rf '" + path + "'");
+  }
+  operator const std::string&() const { return path; }
+};
+
+struct PngSize {
+  unsigned width = 0, height = 0;
+};
+
+/// Width and height from the IHDR chunk (PNG spec: 8-byte signature, then
+/// length, "IHDR", width and height as big-endian 32-bit integers).
+PngSize png_size(const std::string& bytes) {
+  PngSize s;
+  if (bytes.size() < 24 || bytes.compare(1, 3, "PNG") != 0 || bytes.compare(12, 4, "IHDR") != 0) return s;
+  auto be32 = [&](size_t i) {
+    return (unsigned(static_cast<unsigned char>(bytes[i])) << 24) |
+           (unsigned(static_cast<unsigned char>(bytes[i + 1])) << 16) |
+           (unsigned(static_cast<unsigned char>(bytes[i + 2])) << 8) | unsigned(static_cast<unsigned char>(bytes[i + 3]));
+  };
+  s.width = be32(16);
+  s.height = be32(20);
+  return s;
+}
+
+/// Runs plot.py KIND INPUT [extra] -o dir/name.png -o dir/name.svg and checks both files.
+/// Returns the SVG text.
+std::string render_both(const std::string& kind, const std::string& input, const std::string& extra,
+                        const std::string& dir, const std::string& name) {
+  const std::string png = dir + "/" + name + ".png", svg = dir + "/" + name + ".svg";
+  const std::string cmd = kPython + " " + kPlot + " " + kind + " " + input + " " + extra + " -o " + png + " -o " +
+                          svg + " >" + dir + "/plot.log 2>&1";
+  INFO(cmd);
+  INFO(slurp(dir + "/plot.log"));
+  REQUIRE(run(cmd) == 0);
+  const std::string bytes = slurp(png);
+  CHECK(bytes.size() > 10000);  // a real picture, not an empty canvas (an empty 800×600 PNG is ~3 kB)
+  PngSize s = png_size(bytes);
+  CHECK(s.width == kWidth);
+  CHECK(s.height == kHeight);
+  std::string text = slurp(svg);
+  REQUIRE(text.find("<svg") != std::string::npos);
+  CHECK(text.find("width=\"576pt\"") != std::string::npos);  // 8 in × 72 pt
+  return text;
+}
+
+/// plot.py keeps text as text (svg.fonttype none), and matplotlib writes each
+/// text's source string as an XML comment before it.
+bool svg_has_label(const std::string& svg, const std::string& label) {
+  return svg.find("<!-- " + label + " -->") != std::string::npos;
+}
+
+#define CIRCLET_NEED_PYTHON()                                                                          \
+  if (!have_matplotlib()) {                                                                            \
+    WARN("SKIPPED: /usr/bin/python3 cannot import matplotlib (install python3-matplotlib)");           \
+    return;                                                                                            \
+  }
+
+#define CIRCLET_NEED_COMMAND(name)                                                                     \
+  if (!have_command(name)) {                                                                           \
+    WARN("SKIPPED: the circlet binary has no '" name "' command yet");                                 \
+    return;                                                                                            \
+  }
+
+}  // namespace
+
+TEST_CASE("plot.py ratio: exact ratio points and the certificate's bands, PNG size and SVG labels", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("ratio");
+  CIRCLET_NEED_COMMAND("certify");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " ratio c6 sc11 --ap 1,0 --ap2 1,0 --to 60 -o " + d + "/ratio.csv >/dev/null 2>&1") == 0);
+  REQUIRE(run(kCirclet + " certify c6 sc11 --ap 1,0 --ap2 1,0 -o " + d + "/cert.json >/dev/null 2>&1") == 0);
+  std::string svg = render_both("ratio", d + "/ratio.csv", "--cert " + d + "/cert.json", d, "ratio");
+  CHECK(svg_has_label(svg, "$n$"));
+  CHECK(svg_has_label(svg, "$R(n) = c_{6}(n)\\,/\\,\\mathrm{sc}_{11}(n)$"));
+  CHECK(svg.find("circlet ratio c6 sc11") != std::string::npos);  // caption: the command
+  CHECK(svg.find("certificate: ") != std::string::npos);           // legend title: the verdict
+}
+
+TEST_CASE("plot.py remainder: normalised E(n) with the Deligne and Hecke scales", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("remainder");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " remainder c7 --to 400 -o " + d + "/rem.csv >/dev/null 2>&1") == 0);
+  std::string svg = render_both("remainder", d + "/rem.csv", "", d, "remainder");
+  CHECK(svg_has_label(svg, "$n$"));
+  CHECK(svg_has_label(svg, "$E(n)\\,/\\,X^{(w-1)/2}$,  $X = n + \\Delta$"));
+  CHECK(svg_has_label(svg, "Deligne scale $\\pm X^{(w-1)/2}$"));
+  CHECK(svg_has_label(svg, "Hecke scale $\\pm X^{w/2}$"));
+  CHECK(svg.find("circlet remainder c7") != std::string::npos);
+}
+
+TEST_CASE("plot.py arcs: partial sums against K with the main-term ball and the tail bound", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("arcs");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " arcs c9 --at 1000 --upto 30 -o " + d + "/arcs.csv >/dev/null 2>&1") == 0);
+  std::string extra;
+  if (have_command("main")) {
+    REQUIRE(run(kCirclet + " main c9 --at 1000 --json >" + d + "/main.json 2>/dev/null") == 0);
+    extra = "--main " + d + "/main.json";
+  }
+  std::string svg = render_both("arcs", d + "/arcs.csv", extra, d, "arcs");
+  CHECK(svg_has_label(svg, "$S_K$"));
+  CHECK(svg_has_label(svg, "$K$ (largest denominator $k$ of the major arcs)"));
+  CHECK(svg_has_label(svg, "main term $M(n)$ (ball)"));
+  CHECK(svg.find("circlet arcs c9") != std::string::npos);
+}
+
+TEST_CASE("plot.py reads the provenance line and exact numbers of circlet output", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " count c7 --to 30 -o " + d + "/c7.csv >/dev/null 2>&1") == 0);
+  // The library half of plot.py: provenance, balls "[m +/- r]", exact "m*2^e", rationals.
+  const std::string py =
+      "import sys; sys.path.insert(0, '" + std::string(CIRCLET_SOURCE_DIR) + "/scripts'); import plot\n"
+      "t = plot.load_table('" + d + "/c7.csv')\n"
+      "assert t.columns == ['n', 'count'], t.columns\n"
+      "assert t.provenance['program'] == 'circlet' and t.provenance['command'].startswith('circlet count c7'), t.provenance\n"
+      "assert [int(x) for x in t.col('count')[:8]] == [1, 1, 2, 3, 5, 7, 11, 8]\n"
+      "assert plot.parse_ball('[1.5 +/- 0.25]') == (1.5, 0.25)\n"
+      "assert plot.parse_ball({'mid': '3*2^-1', 'rad': '1*2^-3'}) == (1.5, 0.125)\n"
+      "assert plot.to_float('7/4') == 1.75 and plot.to_float('undefined') is None\n"
+      "assert plot.family_tex('sc11', '2n+1') == r'\\mathrm{sc}_{11}(2n+1)'\n"
+      "assert plot.family_shift('c7') == 2 and plot.family_rank('sc13') == 6\n";
+  {
+    std::ofstream f(d + "/check.py");
+    f << py;
+  }
+  INFO(slurp(d + "/check.py"));
+  CHECK(run(kPython + " " + d + "/check.py 2>" + d + "/check.log") == 0);
+  INFO(slurp(d + "/check.log"));
+}
+
+TEST_CASE("plot.py refuses a wrong output type and a table without the kind's columns", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " count c7 --to 10 -o " + d + "/c7.csv >/dev/null 2>&1") == 0);
+  CHECK(run(kPython + " " + kPlot + " ratio " + d + "/c7.csv -o " + d + "/x.pdf 2>" + d + "/e1") == 2);
+  CHECK(slurp(d + "/e1").find("output must end in .png or .svg") != std::string::npos);
+  CHECK(run(kPython + " " + kPlot + " arcs " + d + "/c7.csv -o " + d + "/x.png 2>" + d + "/e2") == 2);
+  CHECK(slurp(d + "/e2").find("none of the columns k, K") != std::string::npos);
+  struct stat st;
+  CHECK(::stat((d + "/x.png").c_str(), &st) != 0);  // nothing written on failure
+}
