@@ -34,6 +34,16 @@ TEST_CASE("the k = 1 term is the singular integral and partial sums accumulate t
   for (const auto& t : e.terms) arb_add(s.get(), s.get(), t.term.get(), 128);
   CHECK(arb_overlaps(s.get(), e.terms.back().partial_sum.get()));
   CHECK(arb_is_finite(e.enclosure.get()));
+  // Each per-k tail bound covers the later terms that were computed.
+  for (size_t i = 0; i < e.terms.size(); ++i) {
+    Arb later, a;
+    for (size_t j = i + 1; j < e.terms.size(); ++j) {
+      arb_abs(a.get(), e.terms[j].term.get());
+      arb_add(later.get(), later.get(), a.get(), 128);
+    }
+    INFO("k=" << i + 1);
+    CHECK(arb_le(later.get(), e.terms[i].tail_bound.get()));
+  }
 }
 
 TEST_CASE("the tail bound really bounds: T(K) >= sum over K < k <= 4K", "[arcs][terms][tail]") {

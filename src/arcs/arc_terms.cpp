@@ -101,6 +101,7 @@ ArcTailBound arc_tail_bound(const QuadraticModel& model, const Fmpz& n, const st
   const int s = out.decay;
   if (s < 2) {
     arb_pos_inf(out.coefficient_tail.get());
+    arb_pos_inf(out.euler_product.get());
     out.method = "no bound: rank " + std::to_string(model.rank) +
                  " <= 3, the singular series does not converge absolutely";
     return out;
@@ -139,6 +140,7 @@ ArcTailBound arc_tail_bound(const QuadraticModel& model, const Fmpz& n, const st
   arb_inv(term.get(), term.get(), wp);
   arb_exp(term.get(), term.get(), wp);
   arb_mul(E.get(), E.get(), term.get(), wp);
+  arb_set(out.euler_product.get(), E.get());
 
   // T = E − Σ_{k≤K} |f(k)| ≥ Σ_{k>K} |f(k)|
   Fmpq S, a;
@@ -190,6 +192,29 @@ ArcExpansion arc_expansion(const QuadraticModel& model, const Fmpz& n, ulong K, 
     out.terms.push_back(std::move(t));
   }
   out.tail = arc_tail_bound(model, n, coeffs, prec);
+
+  // Per-k tails from the same Euler product: σ_∞·(E − Σ_{k' ≤ k} |f(k')|) ≥ σ_∞·Σ_{k' > k} |f(k')|.
+  {
+    Fmpq S, a;
+    Arb T;
+    arf_t up;
+    arf_init(up);
+    for (auto& t : out.terms) {
+      fmpq_abs(a.get(), t.coefficient.get());
+      fmpq_add(S.get(), S.get(), a.get());
+      if (!arb_is_finite(out.tail.euler_product.get())) {
+        arb_pos_inf(t.tail_bound.get());
+        continue;
+      }
+      arb_set_fmpq(T.get(), S.get(), prec + 30);
+      arb_sub(T.get(), out.tail.euler_product.get(), T.get(), prec + 30);
+      arb_mul(T.get(), T.get(), out.singular_integral.get(), prec);
+      arb_get_ubound_arf(up, T.get(), prec);
+      if (arf_sgn(up) < 0) arf_zero(up);
+      arb_set_arf(t.tail_bound.get(), up);
+    }
+    arf_clear(up);
+  }
 
   // σ_∞·T, as an upper bound
   Arb st;

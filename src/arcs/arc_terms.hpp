@@ -36,10 +36,12 @@ struct ArcTerm {
   Fmpq coefficient;  // A_k(n)/k^w, exact (route (a): local pieces)
   Arb term;          // σ_∞(X)·A_k(n)/k^w
   Arb partial_sum;   // Σ_{k' ≤ k} σ_∞(X)·A_{k'}(n)/k'^w
+  Arb tail_bound;    // upper bound (radius 0) for σ_∞(X)·Σ_{k' > k} |A_{k'}(n)/k'^w|; +∞ when r ≤ 3
 };
 
 struct ArcTailBound {
   Arb coefficient_tail;  // an upper bound (radius 0) for Σ_{k>K} |A_k(n)/k^w|; +∞ when r ≤ 3
+  Arb euler_product;     // a ball containing the bound E ≥ Σ_{k≥1} |A_k(n)/k^w| (any K' ≤ K may use it)
   ulong prime_cutoff = 0;  // P₀
   int decay = 0;           // s = ⌊r/2⌋: |f(p)| = p^{−s} at good primes
   std::vector<ulong> special_primes;  // primes whose factors were taken exactly beyond K

@@ -1,0 +1,127 @@
+// `circlet arcs FAMILY --at N --upto K [--prec BITS] [--json] [-o FILE]`:
+// the circle method's major-arc terms σ_∞(X)·A_k(n)/k^w for k = 1..K
+// (MATH.md §6), their partial sums, a rigorous tail bound after each k, and
+// the main term of src/mainterm/ for comparison.
+#include <climits>
+#include <iostream>
+#include <memory>
+#include <string>
+
+#include <nlohmann/json.hpp>
+
+#include "arcs/arc_terms.hpp"
+#include "cli/command.hpp"
+#include "core/atomic_file.hpp"
+#include "core/error.hpp"
+#include "core/provenance.hpp"
+#include "family/family.hpp"
+#include "family/progression.hpp"
+#include "mainterm/main_term.hpp"
+#include "quadratic/model.hpp"
+
+namespace circlet::cli {
+
+namespace {
+
+struct ArcsOptions {
+  std::string family;
+  std::string at, upto = "20";
+  long prec = 128;
+  long digits = 15;
+  bool json = false;
+  std::string output;
+};
+
+constexpr long kMaxUpto = 100000;
+
+// An upper bound printed as a ball that contains it, or "inf" when there is none.
+std::string bound_text(const Arb& b, slong digits) { return arb_is_finite(b.get()) ? b.str(digits) : "inf"; }
+
+void run_arcs(const ArcsOptions& opt) {
+  const Family family = Family::parse(opt.family);
+  if (opt.at.empty()) throw UserError("give the argument n with --at N");
+  const Fmpz n = Fmpz::from_str(opt.at);
+  if (fmpz_sgn(n.get()) < 0) throw UserError("--at: n must be non-negative");
+  const long K = parse_nonnegative("--upto", opt.upto, kMaxUpto);
+  if (opt.prec < 32 || opt.prec > 100000) throw UserError("--prec must be between 32 and 100000 bits");
+  const QuadraticModel model = quadratic_model(family);
+  if (model.rank < 2) throw UserError("family " + family.name() + " has rank " + std::to_string(model.rank) +
+                                      ": no circle-method main term");
+  check_main_term_input(model, n);
+
+  std::unique_ptr<AtomicFile> file;
+  if (!opt.output.empty()) file = std::make_unique<AtomicFile>(opt.output);
+
+  const slong prec = opt.prec;
+  const ArcExpansion e = arc_expansion(model, n, static_cast<ulong>(K), prec);
+  const MainTerm M = main_term(model, n, prec);
+  const bool contained = arb_overlaps(e.enclosure.get(), M.ball.get());
+  const slong dg = opt.digits;
+
+  std::ostream& out = file ? file->stream() : std::cout;
+  const Provenance prov = Provenance::now(command_line(), prec);
+  if (opt.json) {
+    nlohmann::json j;
+    j["provenance"] = prov.to_json();
+    j["family"] = family.name();
+    j["n"] = n.str();
+    j["X"] = e.X.str();
+    j["rank"] = model.rank;
+    j["singular_integral"] = e.singular_integral.str(dg);
+    j["formula"] = "term_k = sigma_inf(X) * A_k(n)/k^w; A_k/k^w exact from local pieces (route a)";
+    nlohmann::json rows = nlohmann::json::array();
+    for (const auto& t : e.terms)
+      rows.push_back({{"k", t.k},
+                      {"coefficient", t.coefficient.str()},
+                      {"term", t.term.str(dg)},
+                      {"partial_sum", t.partial_sum.str(dg)},
+                      {"tail_bound", bound_text(t.tail_bound, dg)}});
+    j["terms"] = rows;
+    j["tail"] = {{"bound", bound_text(e.term_tail, dg)},
+                 {"coefficient_bound", bound_text(e.tail.coefficient_tail, dg)},
+                 {"prime_cutoff", e.tail.prime_cutoff},
+                 {"good_prime_decay", e.tail.decay},
+                 {"method", e.tail.method}};
+    j["enclosure"] = e.enclosure.str(dg);
+    j["main_term"] = {{"ball", M.ball.str(dg)}, {"exact", M.exact ? M.exact->str() : std::string()}};
+    j["main_term_in_enclosure"] = contained;
+    out << j.dump(2) << "\n";
+  } else {
+    if (file) out << prov.csv_comment();
+    out << "k,coefficient,term,partial_sum,tail_bound\n";
+    for (const auto& t : e.terms)
+      out << t.k << "," << t.coefficient.str() << "," << t.term.str(dg) << "," << t.partial_sum.str(dg) << ","
+          << bound_text(t.tail_bound, dg) << "\n";
+    // Two summary rows in the same columns, for comparison with the partial sums.
+    out << "enclosure,," << "," << e.enclosure.str(dg) << "," << bound_text(e.term_tail, dg) << "\n";
+    out << "main_term," << (M.exact ? M.exact->str() : std::string()) << ",," << M.ball.str(dg) << ","
+        << (contained ? "contained" : "NOT-CONTAINED") << "\n";
+  }
+  if (file) {
+    file->commit();
+  } else {
+    out.flush();
+    if (!out) throw UserError("writing to standard output failed");
+  }
+  if (!contained)
+    throw InternalError("the main term lies outside the arc enclosure (partial sum +- tail bound)");
+}
+
+const Registration registration{CommandSpec{
+    "arcs", 40, [](CLI::App& app) {
+      auto opt = std::make_shared<ArcsOptions>();
+      auto* cmd = app.add_subcommand(
+          "arcs", "major-arc terms sigma_inf(X) A_k(n)/k^w for k = 1..K, partial sums and a rigorous tail bound");
+      cmd->add_option("family", opt->family, "family: c<T>, sc<T>, sq<S>")->required();
+      cmd->add_option("--at", opt->at, "the argument n")->required();
+      cmd->add_option("--upto", opt->upto, "largest denominator K (default 20)");
+      cmd->add_option("--prec", opt->prec, "working precision in bits (default 128)");
+      cmd->add_option("--digits", opt->digits, "decimal digits of printed balls (default 15)");
+      cmd->add_flag("--json", opt->json, "JSON output with provenance instead of CSV");
+      cmd->add_option("-o,--output", opt->output, "write to FILE (atomically) instead of standard output");
+      cmd->callback([opt]() { run_arcs(*opt); });
+    }}};
+
+}  // namespace
+
+}  // namespace circlet::cli
