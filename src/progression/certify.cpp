@@ -1,0 +1,204 @@
+#include "progression/certify.hpp"
+
+#include <flint/ulong_extras.h>
+
+#include <cmath>
+#include <map>
+#include <mutex>
+#include <tuple>
+
+#include "core/error.hpp"
+#include "progression/ball_io.hpp"
+#include "progression/interval.hpp"
+#include "progression/pinning.hpp"
+#include "progression/tail_bound.hpp"
+
+namespace circlet {
+
+namespace {
+
+// The tail bound depends only on (r, Q, q2, prec): cache it for scans.
+void cached_tail(arb_t log_bound, arb_t interval, int rank, ulong Q, ulong q2, slong prec) {
+  static std::mutex mu;
+  static std::map<std::tuple<int, ulong, ulong, slong>, std::pair<Arb, Arb>> cache;
+  std::lock_guard<std::mutex> lock(mu);
+  auto key = std::make_tuple(rank, Q, q2, prec);
+  auto it = cache.find(key);
+  if (it == cache.end()) {
+    Arb s, t;
+    tail_log_bound(s, rank, Q, q2, prec);
+    tail_interval(t, rank, Q, q2, prec);
+    it = cache.emplace(key, std::make_pair(s, t)).first;
+  }
+  arb_set(log_bound, it->second.first);
+  arb_set(interval, it->second.second);
+}
+
+struct PrimeData {
+  ulong p;
+  std::vector<PinnedClass> classes;  // defined ones only (β^G ≠ 0)
+  size_t lo = 0, hi = 0;             // indices of min and max ρ
+  bool varies = false;
+};
+
+PrimeData prime_data(const ProgressionPair& pair, ulong p) {
+  PrimeData d;
+  d.p = p;
+  for (auto& c : pinned_classes(pair, p, default_pin_depth(pair, p)))
+    if (c.defined()) d.classes.push_back(std::move(c));
+  for (size_t i = 0; i < d.classes.size(); ++i) {
+    if (fmpq_cmp(d.classes[i].rho().get(), d.classes[d.lo].rho().get()) < 0) d.lo = i;
+    if (fmpq_cmp(d.classes[i].rho().get(), d.classes[d.hi].rho().get()) > 0) d.hi = i;
+  }
+  d.varies = !d.classes.empty() && d.classes[d.lo].rho() != d.classes[d.hi].rho();
+  return d;
+}
+
+// log(max/min) as a double, only to rank primes (never used as a bound).
+double spread(const PrimeData& d) {
+  if (!d.varies) return 0.0;
+  Fmpq lo = d.classes[d.lo].rho(), hi = d.classes[d.hi].rho();
+  if (lo.is_zero()) return 1e300;
+  return std::log(fmpq_get_d(hi.get()) / fmpq_get_d(lo.get()));
+}
+
+ClassFactor to_factor(const PinnedClass& c) {
+  ClassFactor f;
+  f.p = c.p;
+  f.e = c.e;
+  f.residue = c.r;
+  f.betaF = c.betaF;
+  f.betaG = c.betaG;
+  return f;
+}
+
+// res ≡ r_i (mod m_i) for all i; 0 ≤ res < Π m_i.
+void crt_combine(Fmpz& res, Fmpz& mod, const Fmpz& r, const Fmpz& m) {
+  // res' = res + mod·((r − res)·mod^{-1} mod m)
+  if (fmpz_is_one(m)) return;
+  Fmpz inv, t;
+  CIRCLET_ASSERT(fmpz_invmod(inv, mod, m) != 0, "CRT moduli not coprime");
+  fmpz_sub(t, r, res);
+  fmpz_mul(t, t, inv);
+  fmpz_mod(t, t, m);
+  fmpz_mul(t, t, mod);
+  fmpz_add(res, res, t);
+  fmpz_mul(mod, mod, m);
+}
+
+}  // namespace
+
+Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt) {
+  Certificate c;
+  c.F = pair.F.family.name();
+  c.G = pair.G.family.name();
+  c.apF = pair.apF;
+  c.apG = pair.apG;
+  c.rank = pair.rank();
+  c.prec = opt.prec;
+  c.Q_max = opt.Q_max;
+  c.provenance = Provenance::now(command_line(), opt.prec);
+  const slong prec = opt.prec;
+
+  if (pair.identical()) {
+    c.verdict = Verdict::Constant;
+    c.reason = "the same family on the same progression: the two sequences are identical, every rho_p = 1";
+    c.constant_square = Fmpq(1);
+    arb_one(c.constant);
+    c.contains_integer = true;
+    c.integer = Fmpz(1);
+    return c;
+  }
+  if (!tail_converges(c.rank)) {
+    c.verdict = Verdict::Undecided;
+    c.reason = "weight " + weight_string(c.rank) +
+               " <= 2: the product over primes does not converge absolutely and the cusp part is not known "
+               "to be o(main term); no certificate (compare exact counts instead)";
+    return c;
+  }
+  CIRCLET_ASSERT(opt.Q_max >= 3 && opt.q2 > opt.Q_max, "bad certify options");
+
+  std::vector<PrimeData> primes;
+  size_t best = 0;
+  bool any_varies = false;
+  for (ulong p = 2; p <= opt.Q_max; p = n_nextprime(p, 1)) {
+    primes.push_back(prime_data(pair, p));
+    const PrimeData& d = primes.back();
+    if (d.classes.empty()) {
+      c.verdict = Verdict::Undecided;
+      c.reason = "no pinned class at p = " + std::to_string(p) + " on which beta_p^G is non-zero";
+      return c;
+    }
+    if (d.varies && (!any_varies || spread(d) > spread(primes[best]))) best = primes.size() - 1;
+    any_varies = any_varies || d.varies;
+    if (p < 3 || !any_varies) continue;
+
+    // Try Q = p.
+    c.Q = p;
+    c.q2 = opt.q2;
+    cached_tail(c.tail_log, c.tail, c.rank, c.Q, c.q2, prec);
+    if (!arb_is_finite(c.tail_log)) continue;
+    c.distinguishing_prime = primes[best].p;
+    c.classes.assign(2, CertClass{});
+    c.modulus_factors.clear();
+    Fmpz mods[2] = {Fmpz(1), Fmpz(1)};
+    Fmpz res[2] = {Fmpz(0), Fmpz(0)};
+    for (size_t i = 0; i < primes.size(); ++i) {
+      const PrimeData& d = primes[i];
+      for (int k = 0; k < 2; ++k) {
+        const PinnedClass& pc = (i == best) ? d.classes[k == 0 ? d.hi : d.lo] : d.classes[0];
+        c.classes[k].factors.push_back(to_factor(pc));
+      }
+      // Both classes use the modulus p^{max e} at p (a class mod p^e is a union of classes mod p^{e'}, e' ≥ e).
+      ulong e = std::max(c.classes[0].factors.back().e, c.classes[1].factors.back().e);
+      c.modulus_factors.emplace_back(d.p, e);
+      Fmpz pe;
+      fmpz_ui_pow_ui(pe, d.p, e);
+      for (int k = 0; k < 2; ++k) crt_combine(res[k], mods[k], c.classes[k].factors.back().residue, pe);
+    }
+    c.modulus = mods[0];
+    sigma_and_power(c, pair, opt.n0, prec);
+    for (int k = 0; k < 2; ++k) {
+      c.classes[k].residue = res[k];
+      c.classes[k].pinned_product = Fmpq(1);
+      for (const auto& f : c.classes[k].factors) {
+        fmpq_mul(c.classes[k].pinned_product, c.classes[k].pinned_product, f.betaF);
+        fmpq_div(c.classes[k].pinned_product, c.classes[k].pinned_product, f.betaG);
+      }
+      class_intervals(c.classes[k].limit, c.classes[k].from_n0, c.sigma, c.power_limit, c.power_from_n0,
+                      c.classes[k].pinned_product, c.tail, prec);
+    }
+    c.disjoint = !arb_overlaps(c.classes[0].limit, c.classes[1].limit);
+    if (c.disjoint) {
+      c.verdict = Verdict::NonConvergent;
+      c.reason = "rho_" + std::to_string(c.distinguishing_prime) +
+                 " differs on the two classes and the limit intervals are disjoint at Q = " + std::to_string(c.Q);
+      // Margins so that recomputation at another precision lands inside the stored balls.
+      for (auto* b : {c.sigma.get(), c.power_limit.get(), c.power_from_n0.get(), c.tail_log.get(), c.tail.get()})
+        ball_add_margin(b, prec / 2);
+      for (auto& k : c.classes) {
+        ball_add_margin(k.limit, prec / 2);
+        ball_add_margin(k.from_n0, prec / 2);
+      }
+      c.disjoint = !arb_overlaps(c.classes[0].limit, c.classes[1].limit);
+      if (c.disjoint) return c;
+    }
+  }
+  Certificate u;
+  u.F = c.F;
+  u.G = c.G;
+  u.apF = c.apF;
+  u.apG = c.apG;
+  u.rank = c.rank;
+  u.prec = c.prec;
+  u.Q_max = c.Q_max;
+  u.provenance = c.provenance;
+  u.verdict = Verdict::Undecided;
+  u.reason = any_varies ? "some rho_p varies, but the limit intervals overlap for every Q <= " +
+                              std::to_string(opt.Q_max)
+                        : "rho_p is constant on the progression for every p <= " + std::to_string(opt.Q_max) +
+                              "; constancy at larger primes is not proved";
+  return u;
+}
+
+}  // namespace circlet

@@ -1,0 +1,84 @@
+#include "scan/exact_compare.hpp"
+
+#include "core/error.hpp"
+
+namespace circlet {
+
+std::string relation_name(Relation r) {
+  switch (r) {
+    case Relation::BothVanish: return "both-vanish";
+    case Relation::Proportional: return "proportional";
+    case Relation::NotProportional: return "not-proportional";
+  }
+  return "not-proportional";
+}
+
+ProportionalityResult compare_exact(const IntegerSeries& f, const Progression& ap, const IntegerSeries& g,
+                                    const Progression& ap2, long K, long mod, long res) {
+  CIRCLET_ASSERT(ap.A * K + ap.B < f.length() && ap2.A * K + ap2.B < g.length(), "series too short for compare_exact");
+  ProportionalityResult r;
+  bool have_k = false, any_nonzero = false;
+  Fmpz num, den;  // k = num/den: F·den = G·num
+  Fmpz lhs, rhs;
+  for (long n = res; n <= K; n += mod) {
+    const fmpz* a = f.at(ap.A * n + ap.B);
+    const fmpz* b = g.at(ap2.A * n + ap2.B);
+    ++r.tested;
+    if (!fmpz_is_zero(a) || !fmpz_is_zero(b)) any_nonzero = true;
+    if (!have_k) {
+      if (fmpz_is_zero(b)) {
+        if (!fmpz_is_zero(a)) {
+          r.relation = Relation::NotProportional;
+          r.witness = n;
+          return r;
+        }
+        continue;
+      }
+      fmpz_set(num, a);
+      fmpz_set(den, b);
+      have_k = true;
+      continue;
+    }
+    fmpz_mul(lhs, a, den);
+    fmpz_mul(rhs, b, num);
+    if (!fmpz_equal(lhs, rhs)) {
+      r.relation = Relation::NotProportional;
+      r.witness = n;
+      return r;
+    }
+  }
+  if (!any_nonzero) {
+    r.relation = Relation::BothVanish;
+    return r;
+  }
+  r.relation = Relation::Proportional;
+  fmpq_set_fmpz_frac(r.k, num, den);
+  return r;
+}
+
+ExactComparison compare_pair_exact(const IntegerSeries& f, const Progression& ap, const IntegerSeries& g,
+                                   const Progression& ap2, long K, const std::vector<long>& primes) {
+  ExactComparison c;
+  c.whole = compare_exact(f, ap, g, ap2, K);
+  if (c.whole.relation != Relation::NotProportional) return c;  // every sub-progression inherits it
+  for (long p : primes)
+    for (long j = 0; j < p; ++j) {
+      ProportionalityResult s = compare_exact(f, ap, g, ap2, K, p, j);
+      if (s.relation == Relation::Proportional) c.sub.push_back({p, j, s.k});
+      if (s.relation == Relation::BothVanish) c.vanishing.emplace_back(p, j);
+    }
+  return c;
+}
+
+std::string ExactComparison::describe() const {
+  std::string s = relation_name(whole.relation);
+  if (whole.relation == Relation::Proportional) s += " k=" + whole.k.str();
+  if (whole.relation == Relation::NotProportional && whole.witness >= 0) s += " (fails at n=" + std::to_string(whole.witness) + ")";
+  for (const auto& x : sub)
+    s += "; n=" + std::to_string(x.j) + " mod " + std::to_string(x.p) + ": proportional k=" + x.k.str();
+  for (const auto& v : vanishing)
+    s += "; n=" + std::to_string(v.second) + " mod " + std::to_string(v.first) + ": both vanish";
+  return s;
+}
+
+}  // namespace circlet

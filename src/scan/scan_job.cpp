@@ -1,0 +1,68 @@
+#include "scan/scan_job.hpp"
+
+#include "progression/ball_io.hpp"
+#include "progression/certificate.hpp"
+#include "scan/exact_compare.hpp"
+#include "series/eta_series.hpp"
+
+namespace circlet {
+
+nlohmann::json ScanSettings::header() const {
+  return {{"scan", "c_t vs sc_{2t-1}"},
+          {"t_lo", spec.t_lo},
+          {"t_hi", spec.t_hi},
+          {"modulus", spec.M},
+          {"compare_K", compare_K},
+          {"Q_max", certify.Q_max},
+          {"prec", certify.prec}};
+}
+
+const IntegerSeries& ScanContext::series(const Family& f, long N) {
+  auto key = std::make_pair(f.name(), N);
+  auto it = cache_.find(key);
+  if (it == cache_.end())
+    it = cache_.emplace(key, std::make_unique<IntegerSeries>(family_series(f, N))).first;
+  return *it->second;
+}
+
+nlohmann::json run_scan_job(ScanContext& ctx, const ScanJob& job) {
+  const Family F{FamilyKind::Core, job.t}, G{FamilyKind::SelfConjugateCore, 2 * job.t - 1};
+  nlohmann::json r{{"job", job.index}, {"t", job.t},       {"F", F.name()},      {"G", G.name()},
+                   {"A", job.ap.A},    {"B", job.ap.B},    {"A2", job.ap2.A},    {"B2", job.ap2.B}};
+  if (scan_uses_certificates(job.t)) {
+    ProgressionPair pair(F, job.ap, G, job.ap2);
+    Certificate c = certify_pair(pair, ctx.settings().certify);
+    r["verdict"] = verdict_name(c.verdict);
+    r["reason"] = c.reason;
+    if (c.verdict == Verdict::NonConvergent) {
+      r["Q"] = c.Q;
+      r["prime"] = c.distinguishing_prime;
+      r["modulus"] = c.modulus.str();
+      r["r1"] = c.classes[0].residue.str();
+      r["r2"] = c.classes[1].residue.str();
+      r["limit1"] = interval_display(c.classes[0].limit);
+      r["limit2"] = interval_display(c.classes[1].limit);
+    } else if (c.verdict == Verdict::Constant) {
+      r["constant"] = c.constant.str(20);
+      r["contains_integer"] = c.contains_integer;
+    }
+  } else {
+    const long K = ctx.settings().compare_K;
+    const long M = ctx.settings().spec.M;
+    const long N = M * K + M;  // ≥ A·K + B for all A ≤ M, B < A
+    const IntegerSeries& f = ctx.series(F, N);
+    const IntegerSeries& g = ctx.series(G, N);
+    ExactComparison e = compare_pair_exact(f, job.ap, g, job.ap2, K, {2, 3});
+    r["verdict"] = e.whole.relation == Relation::Proportional ? "PROPORTIONAL"
+                   : e.whole.relation == Relation::BothVanish ? "BOTH-VANISH"
+                                                              : "NOT-PROPORTIONAL";
+    r["reason"] = "exact counts n = 0.." + std::to_string(K) + ": " + e.describe();
+    if (e.whole.relation == Relation::Proportional) r["k"] = e.whole.k.str();
+    nlohmann::json sub = nlohmann::json::array();
+    for (const auto& s : e.sub) sub.push_back({{"p", s.p}, {"j", s.j}, {"k", s.k.str()}});
+    r["proportional_subclasses"] = sub;
+  }
+  return r;
+}
+
+}  // namespace circlet
