@@ -146,6 +146,18 @@ TEST_CASE("sc_7 at p = 2: the values of MATH.md section 4, and beta(4N) = beta(N
   }
 }
 
+TEST_CASE("sc_11 at p = 2 ranges over [5/8, 5/4] as MATH.md section 4 says", "[quadratic][local]") {
+  const QuadraticModel m = quadratic_model(Family::parse("sc11"));
+  Fmpq lo = local_density(m, Fmpz(0), 2), hi = lo;
+  for (long n = 1; n < 2000; ++n) {
+    const Fmpq b = local_density(m, Fmpz(n), 2);
+    if (fmpq_cmp(b.get(), lo.get()) < 0) lo = b;
+    if (fmpq_cmp(b.get(), hi.get()) > 0) hi = b;
+  }
+  CHECK(lo == Fmpq(5, 8));
+  CHECK(hi == Fmpq(5, 4));
+}
+
 TEST_CASE("beta_2 = 0 classes of sc_7 exist and the count vanishes on them", "[quadratic][local]") {
   // sc_7(n) = #{y ∈ Z³ : 7Σy_i² − 6y_0 − 4y_1 − 2y_2 = n} (MATH.md §2), enumerated directly:
   // 7y² − 6|y| ≥ 7y²/2 once |y| ≥ 2, so |y_i| ≤ 8 covers n < 200.

@@ -431,13 +431,13 @@ std::vector<Fmpz> core_block_counts(const QuadraticModel& m, ulong p, ulong q) {
       }
     } else {
       CIRCLET_ASSERT(B.a % 2 == 0 && B.c % 2 == 0, "core_block_counts: odd diagonal at p = 2");
-      const long a2 = (B.a / 2) % qq, c2 = (B.c / 2) % qq, b = B.b % qq, l1 = B.l1 % qq, l2 = B.l2 % qq;
-      for (long y1 = 0; y1 < qq; ++y1) {
-        const long base = (a2 * y1 % qq * y1 + l1 * y1) % qq, by = b * y1 % qq;
-        for (long y2 = 0; y2 < qq; ++y2) {
-          const long val = (base + (by + c2 * y2 % qq + l2) % qq * y2) % qq;
-          hist[static_cast<ulong>(val)]++;
-        }
+      // q = 2^j: reduce with a mask (values stay below 2^{2j+2} < 2^63).
+      const ulong mask = q - 1;
+      const ulong a2 = static_cast<ulong>(B.a / 2) & mask, c2 = static_cast<ulong>(B.c / 2) & mask;
+      const ulong b = static_cast<ulong>(B.b) & mask, l1 = static_cast<ulong>(B.l1) & mask, l2 = static_cast<ulong>(B.l2) & mask;
+      for (ulong y1 = 0; y1 < q; ++y1) {
+        const ulong base = ((a2 * y1 & mask) * y1 + l1 * y1) & mask, lin = (b * y1 + l2) & mask;
+        for (ulong y2 = 0; y2 < q; ++y2) hist[(base + ((lin + c2 * y2) & mask) * y2) & mask]++;
       }
     }
     fmpz_poly_zero(h);
