@@ -217,7 +217,7 @@ TEST_CASE("main term: certified digits are reached, or failure is reported", "[m
   CHECK(arb_rel_accuracy_bits(c.term.ball) >= 20);
   CertifiedMainTerm d = main_term_certified(m, Fmpz(1000000), 40, 512, o);  // beyond the Euler cap
   CHECK(!d.certified);
-  CHECK(d.prec == 512);
+  CHECK(d.prec <= 512);
   CertifiedMainTerm e = main_term_certified(model_of("c9"), Fmpz::from_str("1000000000000000000"), 30);
   CHECK(e.certified);
 }

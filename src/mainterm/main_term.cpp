@@ -226,6 +226,7 @@ CertifiedMainTerm main_term_certified(const QuadraticModel& model, const Fmpz& n
   CertifiedMainTerm res;
   const slong want_bits = (slong)std::ceil(digits * 3.3219280948873623) + 1;
   slong prec = want_bits + 20;
+  slong last_acc = -1;
   for (;;) {
     res.term = main_term(model, n, prec, options);
     res.prec = prec;
@@ -237,7 +238,11 @@ CertifiedMainTerm main_term_certified(const QuadraticModel& model, const Fmpz& n
       res.certified = true;
       return res;
     }
-    if (prec >= max_prec) return res;
+    // Stop when raising the precision no longer helps: the accuracy is then
+    // limited by the Euler-product tail (capped prime bound), not by rounding.
+    const slong acc = arb_rel_accuracy_bits(res.term.ball.get());
+    if (prec >= max_prec || acc <= last_acc + 2) return res;
+    last_acc = acc;
     prec = std::min(2 * prec, max_prec);
   }
 }

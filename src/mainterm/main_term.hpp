@@ -83,7 +83,9 @@ struct CertifiedMainTerm {
 
 /// Raises the precision (doubling from about digits·log2(10) + 20 bits up to
 /// max_prec) until the ball has relative accuracy of `digits` decimal digits.
-/// Gives up and reports certified = false rather than looping.
+/// Gives up and reports certified = false rather than looping: at max_prec, or
+/// as soon as doubling the precision gains fewer than 3 bits (the accuracy is then
+/// limited by the Euler-product tail at options.max_euler_prime, not by rounding).
 CertifiedMainTerm main_term_certified(const QuadraticModel& model, const Fmpz& n, slong digits,
                                       slong max_prec = 4096, const MainTermOptions& options = {});
 

@@ -1,0 +1,328 @@
+// `circlet main FAMILY (--at N | --to N | --ap A,B --to K) [--digits D] [--explain]
+//                      [--fast] [--json] [-o FILE]`:
+// the circle-method main term M(n) (src/mainterm/main_term.hpp), exact or as a
+// certified ball, next to the exact count (series engine) and the remainder.
+#include <climits>
+#include <iostream>
+#include <memory>
+#include <sstream>
+#include <string>
+
+#include <nlohmann/json.hpp>
+
+#include "cli/command.hpp"
+#include "core/atomic_file.hpp"
+#include "core/error.hpp"
+#include "core/provenance.hpp"
+#include "family/family.hpp"
+#include "family/progression.hpp"
+#include "mainterm/main_term.hpp"
+#include "quadratic/model.hpp"
+#include "series/eta_series.hpp"
+
+namespace circlet::cli {
+
+namespace {
+
+// A single count is computed from the series when n is at most this (cheap: well under a second).
+constexpr long kCheapCountN = 200000;
+
+struct MainOptions {
+  std::string family;
+  std::string to, at, ap;
+  long digits = 15;
+  bool explain = false;
+  bool fast = false;
+  bool json = false;
+  bool no_count = false;
+  std::string output;
+};
+
+slong bits_for_digits(long digits) { return (slong)(digits * 3.3219280948873623) + 20; }
+
+// The main term as text: the exact rational, or the ball (which reads back to a ball containing M(n)).
+std::string main_text(const MainTerm& m, long digits) {
+  if (m.exact) return m.exact->str();
+  return m.ball.str(digits + 2);
+}
+
+// count − M(n) as text: exact rational, or a ball.
+std::string remainder_text(const Fmpz& count, const MainTerm& m, long digits, slong prec) {
+  if (m.exact) {
+    Fmpq r(count);
+    fmpq_sub(r.get(), r.get(), m.exact->get());
+    return r.str();
+  }
+  Arb r;
+  arb_set_fmpz(r, count.get());
+  arb_sub(r, r, m.ball, prec);
+  return r.str(digits + 2);
+}
+
+nlohmann::json parts_json(const MainTerm& m, long digits) {
+  const MainTermParts& p = m.parts;
+  nlohmann::json j;
+  j["X"] = p.X.str();
+  j["rank"] = p.rank;
+  j["weight"] = Fmpq(p.rank, 2).str();
+  j["det_S"] = p.det_gram.str();
+  j["sigma_inf"] = p.sigma_inf.str(digits + 2);
+  j["character_discriminant"] = p.discriminant.str();
+  j["cofactor_g"] = p.cofactor.str();
+  j["L_argument"] = p.L_argument;
+  j["L_value"] = p.L_value.str(digits + 2);
+  if (p.L_rational) j["L_rational_R"] = p.L_rational->str();
+  j["L_route"] = p.L_route;
+  j["correction_C"] = p.correction.str();
+  nlohmann::json sp = nlohmann::json::array();
+  for (const auto& s : p.special)
+    sp.push_back({{"p", s.p}, {"v_p(X)", s.valuation}, {"beta_p", s.beta.str()}, {"chi(p)", s.chi},
+                  {"correction", s.correction.str()}});
+  j["special_primes"] = sp;
+  return j;
+}
+
+void print_explain(std::ostream& out, const MainTerm& m, long digits) {
+  const MainTermParts& p = m.parts;
+  const bool even = p.rank % 2 == 0;
+  out << "parts:\n";
+  out << "  X = n + Delta         " << p.X.str() << "\n";
+  out << "  rank r, weight r/2    " << p.rank << ", " << Fmpq(p.rank, 2).str() << "\n";
+  out << "  det S                 " << p.det_gram.str() << "\n";
+  out << "  sigma_inf(X)          " << p.sigma_inf.str(digits + 2) << "\n";
+  out << "  character             Kronecker symbol (" << p.discriminant.str() << "/.)"
+      << (even ? " (fixed by the family)" : " (from D = (-1)^k det S X)") << "\n";
+  out << "  L-value               L(" << p.L_argument << ", chi) = " << p.L_value.str(digits + 2) << "\n";
+  if (p.L_rational)
+    out << "                        = R pi^" << p.L_argument << "/sqrt(f), f = |" << p.discriminant.str()
+        << "|, R = " << p.L_rational->str() << "\n";
+  out << "  L route               " << p.L_route << "\n";
+  out << "  product formula       "
+      << (even ? "prod_p beta_p = C / L(w, chi)" : "prod_p beta_p = C L(k, chi) / zeta(2k)") << "\n";
+  out << "  special primes        p, v_p(X), beta_p, chi(p), factor of C\n";
+  for (const auto& s : p.special)
+    out << "                        " << s.p << ", " << s.valuation << ", " << s.beta.str() << ", " << s.chi << ", "
+        << s.correction.str() << "\n";
+  out << "  C                     " << p.correction.str() << "\n";
+}
+
+void run_single(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out) {
+  Fmpz n = Fmpz::from_str(opt.at);
+  if (fmpz_sgn(n.get()) < 0) throw UserError("--at must be a non-negative integer, got " + opt.at);
+  check_main_term_input(model, n);
+  const bool cheap = !opt.no_count && fmpz_cmp_si(n.get(), kCheapCountN) <= 0;
+  Fmpz count;
+  if (cheap) count = family_series(family, fmpz_get_si(n.get())).value(fmpz_get_si(n.get()));
+
+  if (opt.fast) {
+    double M = main_term_fast(model, n);
+    if (opt.json) {
+      nlohmann::json j;
+      j["provenance"] = Provenance::now(command_line()).to_json();
+      j["family"] = family.name();
+      j["n"] = n.str();
+      j["main_fast_not_certified"] = M;
+      if (cheap) j["count"] = count.str();
+      out << j.dump(2) << "\n";
+    } else {
+      out << "family      " << family.name() << " (" << family.description() << ")\n";
+      out << "n           " << n.str() << "\n";
+      out << "main term   " << M << "   (floating point, NOT CERTIFIED)\n";
+      if (cheap) out << "count       " << count.str() << "\n";
+    }
+    return;
+  }
+
+  CertifiedMainTerm c = main_term_certified(model, n, opt.digits, 4096);
+  const MainTerm& m = c.term;
+  std::string status = m.exact ? "exact rational"
+                               : (c.certified ? "ball, " + std::to_string(opt.digits) + " digits certified"
+                                              : "ball: could not certify " + std::to_string(opt.digits) +
+                                                    " digits (stopped at " + std::to_string(c.prec) +
+                                                    " bits; " + m.parts.L_route + ")");
+  if (opt.json) {
+    nlohmann::json j;
+    j["provenance"] = Provenance::now(command_line(), c.prec).to_json();
+    j["family"] = family.name();
+    j["n"] = n.str();
+    j["main"] = main_text(m, opt.digits);
+    j["main_status"] = status;
+    j["certified"] = c.certified;
+    if (cheap) {
+      j["count"] = count.str();
+      j["remainder"] = remainder_text(count, m, opt.digits, c.prec);
+    }
+    if (opt.explain) j["parts"] = parts_json(m, opt.digits);
+    out << j.dump(2) << "\n";
+    return;
+  }
+  out << "family      " << family.name() << " (" << family.description() << ")\n";
+  out << "n           " << n.str() << "\n";
+  out << "main term   " << main_text(m, opt.digits) << "   (" << status << ")\n";
+  if (m.exact) {
+    Arb b;
+    arb_set_fmpq(b, m.exact->get(), bits_for_digits(opt.digits));
+    out << "            ~ " << b.str(opt.digits) << "\n";
+  }
+  if (cheap) {
+    out << "count       " << count.str() << "   (exact, series engine)\n";
+    out << "remainder   " << remainder_text(count, m, opt.digits, c.prec) << "   (count - main term)\n";
+  } else {
+    out << "count       not computed (n > " << kCheapCountN << " or --no-count)\n";
+  }
+  if (opt.explain) print_explain(out, m, opt.digits);
+}
+
+void run_table(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out,
+               bool to_file) {
+  Progression prog;
+  long K = 0, n_max = 0;
+  const bool has_ap = !opt.ap.empty();
+  if (has_ap) {
+    prog = Progression::parse(opt.ap);
+    K = parse_nonnegative("--to", opt.to, LONG_MAX);
+    n_max = prog.at(K);
+  } else {
+    n_max = parse_nonnegative("--to", opt.to, LONG_MAX);
+  }
+  const long rows = has_ap ? K + 1 : n_max + 1;
+  auto n_of = [&](long i) { return has_ap ? prog.A * i + prog.B : i; };
+  IntegerSeries series;
+  const bool with_count = !opt.no_count;
+  if (with_count) {
+    SeriesPlan plan = plan_family_series(family, n_max);
+    check_resources(plan);
+    series = compute_series(plan);
+  }
+  const slong prec = bits_for_digits(opt.digits);
+  MainTermOptions mo;
+  mo.with_parts = false;
+  const Provenance prov = Provenance::now(command_line(), opt.fast ? 53 : prec);
+  std::string main_col = opt.fast ? "main_fast_not_certified" : "main";
+  std::string rem_col = opt.fast ? "remainder_fast_not_certified" : "remainder";
+  std::string buf;
+  nlohmann::json jrows = nlohmann::json::array();
+  if (!opt.json) {
+    if (to_file) buf += prov.csv_comment();
+    buf += has_ap ? "k,n" : "n";
+    if (with_count) buf += ",count";
+    buf += "," + main_col;
+    if (with_count) buf += "," + rem_col;
+    buf += "\n";
+  }
+  for (long i = 0; i < rows; ++i) {
+    const long n = n_of(i);
+    Fmpz fn(n);
+    std::string main_s, rem_s, count_s;
+    Fmpq X = model.X(fn);
+    if (fmpq_sgn(X.get()) <= 0) {
+      main_s = "";
+      rem_s = "";
+    } else if (opt.fast) {
+      double M = main_term_fast(model, fn);
+      std::ostringstream s1, s2;
+      s1.precision(17);
+      s2.precision(17);
+      s1 << M;
+      main_s = s1.str();
+      if (with_count) {
+        s2 << fmpz_get_d(series.at(n)) - M;
+        rem_s = s2.str();
+      }
+    } else {
+      MainTerm m = main_term(model, fn, prec, mo);
+      if (!m.exact && arb_rel_accuracy_bits(m.ball) < (slong)(opt.digits * 3.32)) {
+        CertifiedMainTerm c = main_term_certified(model, fn, opt.digits, 4096, mo);
+        m = std::move(c.term);
+      }
+      main_s = main_text(m, opt.digits);
+      if (with_count) {
+        Fmpz cnt;
+        fmpz_set(cnt.get(), series.at(n));
+        rem_s = remainder_text(cnt, m, opt.digits, prec);
+      }
+    }
+    if (with_count) {
+      count_s.clear();
+      append_decimal(count_s, series.at(n));
+    }
+    if (opt.json) {
+      nlohmann::json r;
+      if (has_ap) r["k"] = i;
+      r["n"] = n;
+      if (with_count) r["count"] = count_s;
+      r[main_col] = main_s;
+      if (with_count) r[rem_col] = rem_s;
+      jrows.push_back(std::move(r));
+    } else {
+      if (has_ap) buf += std::to_string(i) + ",";
+      buf += std::to_string(n);
+      if (with_count) buf += "," + count_s;
+      buf += "," + main_s;
+      if (with_count) buf += "," + rem_s;
+      buf += "\n";
+      if (buf.size() > (1u << 20)) {
+        out << buf;
+        buf.clear();
+      }
+    }
+  }
+  if (opt.json) {
+    nlohmann::json j;
+    j["provenance"] = prov.to_json();
+    j["family"] = family.name();
+    j["certified"] = !opt.fast;
+    if (opt.fast) j["note"] = "main terms from the floating-point path: NOT CERTIFIED";
+    j["rows"] = std::move(jrows);
+    out << j.dump(2) << "\n";
+  } else {
+    out << buf;
+  }
+}
+
+void run_main(const MainOptions& opt) {
+  const Family family = Family::parse(opt.family);
+  const bool has_to = !opt.to.empty(), has_at = !opt.at.empty(), has_ap = !opt.ap.empty();
+  if (has_to && has_at) throw UserError("give either --to N or --at N, not both");
+  if (has_ap && !has_to) throw UserError("--ap A,B needs --to K (the progression is A*k+B for k = 0..K)");
+  if (!has_to && !has_at) throw UserError("give --at N, --to N or --ap A,B --to K");
+  if (opt.digits < 1 || opt.digits > 1000) throw UserError("--digits must be between 1 and 1000");
+  if (opt.explain && !has_at) throw UserError("--explain is for a single value (--at N)");
+  const QuadraticModel model = quadratic_model(family);
+  if (model.rank < 2)
+    throw UserError("the main term needs rank ≥ 2, but " + family.name() + " has rank " + std::to_string(model.rank));
+  std::unique_ptr<AtomicFile> file;
+  if (!opt.output.empty()) file = std::make_unique<AtomicFile>(opt.output);
+  std::ostream& out = file ? file->stream() : std::cout;
+  if (has_at)
+    run_single(opt, family, model, out);
+  else
+    run_table(opt, family, model, out, file != nullptr);
+  if (file) {
+    file->commit();
+  } else {
+    out.flush();
+    if (!out) throw UserError("writing to standard output failed");
+  }
+}
+
+const Registration registration{CommandSpec{
+    "main", 20, [](CLI::App& app) {
+      auto opt = std::make_shared<MainOptions>();
+      auto* cmd = app.add_subcommand("main", "circle-method main term M(n): exact rational or certified ball, with count and remainder");
+      cmd->add_option("family", opt->family, "family: c<T>, sc<T>, sq<S>")->required();
+      cmd->add_option("--at", opt->at, "a single n (any size)");
+      cmd->add_option("--to", opt->to, "table of n = 0..N (with --ap: k = 0..K)");
+      cmd->add_option("--ap", opt->ap, "progression A,B: rows n = A*k+B, k = 0..K (needs --to K)");
+      cmd->add_option("--digits", opt->digits, "significant digits to certify for balls (default 15)");
+      cmd->add_flag("--explain", opt->explain, "print the parts: X, sigma_inf, character, L-value, special primes");
+      cmd->add_flag("--fast", opt->fast, "floating-point main term (NOT CERTIFIED), for bulk tables");
+      cmd->add_flag("--no-count", opt->no_count, "do not compute exact counts");
+      cmd->add_flag("--json", opt->json, "JSON output with provenance instead of text/CSV");
+      cmd->add_option("-o,--output", opt->output, "write to FILE (atomically) instead of standard output");
+      cmd->callback([opt]() { run_main(*opt); });
+    }}};
+
+}  // namespace
+
+}  // namespace circlet::cli

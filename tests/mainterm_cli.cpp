@@ -1,0 +1,75 @@
+// Tests for the `circlet main` command (src/cli/main_cmd.cpp), run as a process.
+#include <catch2/catch.hpp>
+#include <array>
+#include <cstdio>
+#include <memory>
+#include <string>
+
+namespace {
+
+struct Run {
+  int status;
+  std::string out;
+};
+
+Run run(const std::string& args) {
+  std::string cmd = std::string(CIRCLET_BINARY) + " " + args + " 2>&1";
+  FILE* p = ::popen(cmd.c_str(), "r");
+  Run r{-1, ""};
+  if (!p) return r;
+  std::array<char, 4096> buf;
+  size_t n;
+  while ((n = std::fread(buf.data(), 1, buf.size(), p)) > 0) r.out.append(buf.data(), n);
+  int st = ::pclose(p);
+  r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
+  return r;
+}
+
+}  // namespace
+
+TEST_CASE("circlet main: exact main term, count and remainder for c9", "[mainterm][cli]") {
+  // c_9(1000) = 14180606 and M ≈ 14181871.4 (MATH.md §3).
+  Run r = run("main c9 --at 1000");
+  CHECK(r.status == 0);
+  CHECK(r.out.find("382910528/27") != std::string::npos);
+  CHECK(r.out.find("14180606") != std::string::npos);
+  CHECK(r.out.find("-34166/27") != std::string::npos);
+}
+
+TEST_CASE("circlet main: --explain lists the parts", "[mainterm][cli]") {
+  Run r = run("main c6 --at 101 --explain");
+  CHECK(r.status == 0);
+  CHECK(r.out.find("3319/10") != std::string::npos);  // c_6(101) = 330, M ≈ 331.90 (MATH.md §3)
+  CHECK(r.out.find("sigma_inf") != std::string::npos);
+  CHECK(r.out.find("Kronecker symbol (7377/.)") != std::string::npos);
+  CHECK(r.out.find("special primes") != std::string::npos);
+}
+
+TEST_CASE("circlet main: tables as CSV and JSON, fast path labelled", "[mainterm][cli]") {
+  Run r = run("main c5 --to 4");
+  CHECK(r.status == 0);
+  CHECK(r.out == "n,count,main,remainder\n0,1,1,0\n1,1,1,0\n2,2,2,0\n3,3,3,0\n4,5,5,0\n");
+  Run a = run("main sq5 --ap 3,1 --to 2 --fast");
+  CHECK(a.status == 0);
+  CHECK(a.out.find("main_fast_not_certified") != std::string::npos);
+  Run j = run("main sq4 --to 3 --json");
+  CHECK(j.status == 0);
+  CHECK(j.out.find("\"provenance\"") != std::string::npos);
+  CHECK(j.out.find("\"certified\": true") != std::string::npos);
+}
+
+TEST_CASE("circlet main: bad input is a user error with one clear line", "[mainterm][cli][errors]") {
+  Run r = run("main sq1 --at 4");
+  CHECK(r.status == 2);
+  CHECK(r.out.find("needs rank ≥ 2") != std::string::npos);
+  r = run("main c5 --at 4 --to 5");
+  CHECK(r.status == 2);
+  CHECK(r.out.find("either --to N or --at N") != std::string::npos);
+  r = run("main c5 --at -3");
+  CHECK(r.status == 2);
+  r = run("main c5 --to 5 --explain");
+  CHECK(r.status == 2);
+  CHECK(r.out.find("--explain is for a single value") != std::string::npos);
+  r = run("main c5 --at 10 --digits 0");
+  CHECK(r.status == 2);
+}
