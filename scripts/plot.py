@@ -209,6 +209,12 @@ def parse_ball(x):
                 return (_exp2_to_float(int(mm.group(1)), int(mm.group(2))),
                         _exp2_to_float(int(rm.group(1)), int(rm.group(2))))
             return to_float(mid), to_float(rad) or 0.0
+        if "ball" in x:  # {"ball": "[m +/- r]", "exact": "p/q"}: prefer the exact value
+            if x.get("exact"):
+                v = to_float(x["exact"])
+                if v is not None:
+                    return v, 0.0
+            return parse_ball(x["ball"])
         if "decimal" in x:
             return parse_ball(x["decimal"])
         if "lo" in x and "hi" in x:
@@ -518,25 +524,50 @@ def plot_remainder(table, out):
 
 # ------------------------------------------------------------------- arcs --
 
+def _is_int(v):
+    try:
+        int(str(v))
+        return True
+    except ValueError:
+        return False
+
+
 def arcs_setup(table, main_json=None):
     meta = table.meta or {}
+    main = None
+    # `circlet arcs` CSV: after the rows k = 1..K, summary rows "enclosure" and
+    # "main_term" (the main-term ball in the partial_sum column).
+    if "k" in table.columns:
+        i = table.columns.index("k")
+        for r in table.rows:
+            if str(r[i]) == "main_term" and table.find("partial_sum"):
+                main = parse_ball(r[table.columns.index("partial_sum")])
+    if main is None and "main_term" in table.columns and table.rows:  # or a main_term column
+        v = table.rows[0][table.columns.index("main_term")]
+        if v not in (None, ""):
+            main = parse_ball(v)
     pos, opts = command_options(table.provenance.get("command", ""))
     fams = [p for p in pos if family_parts(p)[0]]
     fam = meta.get("family") or (fams[0] if fams else None)
     at = meta.get("n", meta.get("at", opts.get("--at")))
-    main = None
-    for src in (meta, main_json or {}):
+    # An explicit `circlet main --json` wins; then the arcs output's own main term.
+    sources = [main_json or {}] + ([] if main else [meta])
+    for src in sources:
         for key in ("main_term", "main", "M", "main_term_ball"):
             if key in src and src[key] not in (None, ""):
                 main = parse_ball(src[key])
                 break
-        if main:
-            break
+        else:
+            continue
+        break
     return fam, at, main
 
 
 def arcs_series(table):
-    k = [int(float(v)) for v in table.col("k", "K")]
+    keep = [_is_int(v) for v in table.col("k", "K")]
+    table = Table(table.columns, [r for r, ok in zip(table.rows, keep) if ok], table.provenance, table.meta,
+                  table.path)
+    k = [int(v) for v in table.col("k", "K")]
     pname = table.find("partial_sum", "partial", "sum", "S_K", "partial_sum_ball")
     partial = [parse_ball(v) for v in table.col(pname)] if pname else None
     if partial is None and table.find("partial_mid"):

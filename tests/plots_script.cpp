@@ -148,6 +148,20 @@ TEST_CASE("plot.py remainder: normalised E(n) with the Deligne and Hecke scales"
   CHECK(svg.find("circlet remainder c7") != std::string::npos);
 }
 
+TEST_CASE("plot.py remainder from a `circlet main --to` table (n, count, main, remainder)", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("main");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  // c6: weight 5/2, rank 5, X = n + 35/24 (MATH.md §2).
+  REQUIRE(run(kCirclet + " main c6 --to 300 -o " + d + "/main.csv >/dev/null 2>&1") == 0);
+  std::string svg = render_both("remainder", d + "/main.csv", "", d, "remainder");
+  CHECK(svg_has_label(svg, "$E(n)\\,/\\,X^{(w-1)/2}$,  $X = n + \\Delta$"));
+  CHECK(svg.find("weight $w = 5/2$") != std::string::npos);
+  CHECK(svg.find("circlet main c6 --to 300") != std::string::npos);
+}
+
 TEST_CASE("plot.py arcs: partial sums against K with the main-term ball and the tail bound", "[plots]") {
   CIRCLET_NEED_PYTHON();
   CIRCLET_NEED_COMMAND("arcs");
