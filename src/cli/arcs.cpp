@@ -34,8 +34,24 @@ struct ArcsOptions {
 
 constexpr long kMaxUpto = 100000;
 
+// A ball as "[mid +/- rad]" with `digits` digits of the midpoint even where the
+// radius is large (ARB_STR_MORE); reading it back gives a ball containing x.
+std::string ball_text(const Arb& x, slong digits) {
+  char* c = arb_get_str(x.get(), digits, ARB_STR_MORE);
+  std::string s(c);
+  flint_free(c);
+  return s;
+}
+
 // An upper bound printed as a ball that contains it, or "inf" when there is none.
-std::string bound_text(const Arb& b, slong digits) { return arb_is_finite(b.get()) ? b.str(digits) : "inf"; }
+std::string bound_text(const Arb& b, slong digits) { return arb_is_finite(b.get()) ? ball_text(b, digits) : "inf"; }
+
+// partial sum ± tail bound after k terms: a ball containing M(n).
+std::string enclosure_text(const ArcTerm& t, slong digits) {
+  Arb e = t.partial_sum;
+  arb_add_error(e.get(), t.tail_bound.get());
+  return ball_text(e, digits);
+}
 
 void run_arcs(const ArcsOptions& opt) {
   const Family family = Family::parse(opt.family);
@@ -67,35 +83,36 @@ void run_arcs(const ArcsOptions& opt) {
     j["n"] = n.str();
     j["X"] = e.X.str();
     j["rank"] = model.rank;
-    j["singular_integral"] = e.singular_integral.str(dg);
+    j["singular_integral"] = ball_text(e.singular_integral, dg);
     j["formula"] = "term_k = sigma_inf(X) * A_k(n)/k^w; A_k/k^w exact from local pieces (route a)";
     nlohmann::json rows = nlohmann::json::array();
     for (const auto& t : e.terms)
       rows.push_back({{"k", t.k},
                       {"coefficient", t.coefficient.str()},
-                      {"term", t.term.str(dg)},
-                      {"partial_sum", t.partial_sum.str(dg)},
-                      {"tail_bound", bound_text(t.tail_bound, dg)}});
+                      {"term", ball_text(t.term, dg)},
+                      {"partial_sum", ball_text(t.partial_sum, dg)},
+                      {"tail_bound", bound_text(t.tail_bound, dg)},
+                      {"enclosure", enclosure_text(t, dg)}});
     j["terms"] = rows;
     j["tail"] = {{"bound", bound_text(e.term_tail, dg)},
                  {"coefficient_bound", bound_text(e.tail.coefficient_tail, dg)},
                  {"prime_cutoff", e.tail.prime_cutoff},
                  {"good_prime_decay", e.tail.decay},
                  {"method", e.tail.method}};
-    j["enclosure"] = e.enclosure.str(dg);
-    j["main_term"] = {{"ball", M.ball.str(dg)}, {"exact", M.exact ? M.exact->str() : std::string()}};
+    j["enclosure"] = ball_text(e.enclosure, dg);
+    j["main_term"] = ball_text(M.ball, dg);
+    j["main_term_exact"] = M.exact ? M.exact->str() : std::string();
     j["main_term_in_enclosure"] = contained;
     out << j.dump(2) << "\n";
   } else {
     if (file) out << prov.csv_comment();
-    out << "k,coefficient,term,partial_sum,tail_bound\n";
+    // Every row carries the enclosure after k terms and the main term, so that
+    // convergence can be plotted from the CSV alone.
+    const std::string main_text = ball_text(M.ball, dg);
+    out << "k,coefficient,term,partial_sum,tail_bound,enclosure,main_term\n";
     for (const auto& t : e.terms)
-      out << t.k << "," << t.coefficient.str() << "," << t.term.str(dg) << "," << t.partial_sum.str(dg) << ","
-          << bound_text(t.tail_bound, dg) << "\n";
-    // Two summary rows in the same columns, for comparison with the partial sums.
-    out << "enclosure,," << "," << e.enclosure.str(dg) << "," << bound_text(e.term_tail, dg) << "\n";
-    out << "main_term," << (M.exact ? M.exact->str() : std::string()) << ",," << M.ball.str(dg) << ","
-        << (contained ? "contained" : "NOT-CONTAINED") << "\n";
+      out << t.k << "," << t.coefficient.str() << "," << ball_text(t.term, dg) << "," << ball_text(t.partial_sum, dg) << ","
+          << bound_text(t.tail_bound, dg) << "," << enclosure_text(t, dg) << "," << main_text << "\n";
   }
   if (file) {
     file->commit();
