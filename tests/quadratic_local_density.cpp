@@ -226,8 +226,8 @@ TEST_CASE("sq4: the local factors of Jacobi's four-square formula", "[quadratic]
       if (v > 0) fmpq_mul(product.get(), product.get(), geom.get());
     }
     // Primes above 31 dividing n ≤ 300 appear at most once.
-    for (ulong p : local_density_special_primes(m, N))
-      if (p > 31) fmpq_mul(product.get(), product.get(), Fmpq(static_cast<slong>(p + 1), p).get());
+    for (const Fmpz& P : local_density_special_primes(m, N))
+      if (const ulong p = fmpz_get_ui(P.get()); p > 31) fmpq_mul(product.get(), product.get(), Fmpq(static_cast<slong>(p + 1), p).get());
     CHECK(product == Fmpq(8 * jacobi4_sum(n)));
   }
 }
@@ -241,7 +241,8 @@ TEST_CASE("sq8: the Siegel product reproduces Jacobi's eight-square formula exac
     INFO("n = " << n);
     const Fmpz N(n);
     Fmpq product(16 * n * n * n);
-    for (ulong p : local_density_special_primes(m, N)) {
+    for (const Fmpz& P : local_density_special_primes(m, N)) {
+      const ulong p = fmpz_get_ui(P.get());
       fmpq_mul(product.get(), product.get(), local_density(m, N, p).get());
       if (p != 2) {
         const long p4 = static_cast<long>(p * p * p * p);
@@ -274,7 +275,7 @@ TEST_CASE("generic factors outside the special primes follow the character of th
       for (ulong p = 2; p < 100; ++p) {
         if (!n_is_prime(p)) continue;
         INFO(f.name() << " n=" << n << " p=" << p);
-        const bool is_special = std::binary_search(special.begin(), special.end(), p);
+        const bool is_special = std::binary_search(special.begin(), special.end(), Fmpz::from_ui(p));
         CHECK(is_special == (is_structural_prime(m, p) || local_density_stable_exponent(m, N, p) > (p == 2 ? 3 : 1)));
         if (is_special) {
           CHECK_THROWS_AS(local_density_generic_factor(m, N, p), UserError);
@@ -284,6 +285,40 @@ TEST_CASE("generic factors outside the special primes follow the character of th
       }
     }
   }
+}
+
+TEST_CASE("primes beyond 64 bits: special primes and closed forms take Fmpz primes", "[quadratic][local]") {
+  // c_6: X = (24n + 35)/24. With the prime P = 2^64 + 13 take n = (kP − 35)/24 for the smallest
+  // k > 0 making it an integer; then P exactly divides the numerator of X (k < 48 < P).
+  Fmpz P;
+  fmpz_set_str(P.get(), "18446744073709551629", 10);  // 2^64 + 13, prime (checked below)
+  REQUIRE(fmpz_is_prime(P.get()));
+  const QuadraticModel m = quadratic_model(Family::parse("c6"));
+  Fmpz n;
+  for (long k = 1; k < 48; ++k) {
+    Fmpz num;
+    fmpz_mul_si(num.get(), P.get(), k);
+    fmpz_sub_ui(num.get(), num.get(), 35);
+    if (fmpz_fdiv_ui(num.get(), 24) == 0 && fmpz_sgn(num.get()) > 0) {
+      fmpz_divexact_ui(n.get(), num.get(), 24);
+      break;
+    }
+  }
+  const auto special = local_density_special_primes(m, n);
+  REQUIRE(std::binary_search(special.begin(), special.end(), P));
+  // r = 5 odd, v = 1: a_1 = 0 (odd i ≤ v), a_2 = −p^{2(1−r/2)−1} = −p^{−4}: β = 1 − p^{−4}.
+  Fmpq expect(1), p4;
+  Fmpz P4;
+  fmpz_pow_ui(P4.get(), P.get(), 4);
+  fmpq_set_fmpz_frac(p4.get(), Fmpz(1).get(), P4.get());
+  fmpq_sub(expect.get(), expect.get(), p4.get());
+  CHECK(local_density(m, n, P) == expect);
+  CHECK(local_density_stable_exponent(m, n, P) == 2);
+  CHECK_THROWS_WITH(local_density_generic_factor(m, n, P), Catch::Contains("is a special prime"));
+  Fmpz Q;
+  fmpz_nextprime(Q.get(), P.get(), 1);
+  CHECK(local_density_generic_factor(m, n, Q) == local_density(m, n, Q));
+  CHECK_THROWS_WITH(local_density(m, n, Fmpz(91)), Catch::Contains("p = 91 is not a prime"));
 }
 
 TEST_CASE("arc pieces sum to the local density and vanish beyond the stable exponent", "[quadratic][local]") {

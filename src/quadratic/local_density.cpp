@@ -48,6 +48,10 @@ void check_prime(ulong p) {
   if (p < 2 || !n_is_prime(p)) throw UserError("p = " + std::to_string(p) + " is not a prime");
 }
 
+void check_prime(const Fmpz& p) {
+  if (fmpz_cmp_ui(p.get(), 2) < 0 || !fmpz_is_prime(p.get())) throw UserError("p = " + p.str() + " is not a prime");
+}
+
 void check_model(const QuadraticModel& m) {
   if (m.rank <= 0)
     throw UserError("family " + m.family.name() + " has rank 0: local densities are not defined");
@@ -62,6 +66,11 @@ PrimeCase classify(const QuadraticModel& m, ulong p) {
   return PrimeCase::TwoAdicSquares;                              // sc_t (t odd) or sq_S
 }
 
+// A prime beyond 64 bits exceeds t ≤ 1000 and is odd: unimodular.
+PrimeCase classify(const QuadraticModel& m, const Fmpz& p) {
+  return fmpz_abs_fits_ui(p.get()) ? classify(m, fmpz_get_ui(p.get())) : PrimeCase::Unimodular;
+}
+
 // X = n + Δ, required non-zero.
 Fmpq model_X(const QuadraticModel& m, const Fmpz& n) {
   Fmpq x = m.X(n);
@@ -70,23 +79,23 @@ Fmpq model_X(const QuadraticModel& m, const Fmpz& n) {
 }
 
 // v_p of a non-zero rational.
-long valuation(const Fmpq& x, ulong p) {
-  Fmpz tmp, pp = Fmpz::from_ui(p);
-  long v = fmpz_remove(tmp.get(), fmpq_numref(x.get()), pp.get());
-  v -= fmpz_remove(tmp.get(), fmpq_denref(x.get()), pp.get());
+long valuation(const Fmpq& x, const Fmpz& p) {
+  Fmpz tmp;
+  long v = fmpz_remove(tmp.get(), fmpq_numref(x.get()), p.get());
+  v -= fmpz_remove(tmp.get(), fmpq_denref(x.get()), p.get());
   return v;
 }
 
 // p^e for any integer e, exactly.
-Fmpq ppow(ulong p, long e) {
+Fmpq ppow(const Fmpz& p, long e) {
   Fmpq r(1);
   Fmpz pe;
-  fmpz_set_ui(pe.get(), p);
-  fmpz_pow_ui(pe.get(), pe.get(), static_cast<ulong>(std::labs(e)));
+  fmpz_pow_ui(pe.get(), p.get(), static_cast<ulong>(std::labs(e)));
   if (e >= 0) fmpq_set_fmpz_frac(r.get(), pe.get(), Fmpz(1).get());
   else fmpq_set_fmpz_frac(r.get(), Fmpz(1).get(), pe.get());
   return r;
 }
+Fmpq ppow(ulong p, long e) { return ppow(Fmpz::from_ui(p), e); }
 
 Fmpq mul(const Fmpq& a, const Fmpq& b) { Fmpq r; fmpq_mul(r.get(), a.get(), b.get()); return r; }
 Fmpq add(const Fmpq& a, const Fmpq& b) { Fmpq r; fmpq_add(r.get(), a.get(), b.get()); return r; }
@@ -95,11 +104,11 @@ Fmpq scale(const Fmpq& a, long c) { Fmpq r; fmpq_mul_si(r.get(), a.get(), c); re
 
 // Legendre symbol (x/p) of a rational x whose numerator and denominator are prime to p (p odd)
 // or 0 if p divides either: (a/b / p) = (a/p)(b/p) since (b⁻¹/p) = (b/p).
-int legendre(const Fmpq& x, ulong p) {
-  Fmpz pp = Fmpz::from_ui(p), a, b;
-  fmpz_mod(a.get(), fmpq_numref(x.get()), pp.get());
-  fmpz_mod(b.get(), fmpq_denref(x.get()), pp.get());
-  return fmpz_jacobi(a.get(), pp.get()) * fmpz_jacobi(b.get(), pp.get());
+int legendre(const Fmpq& x, const Fmpz& p) {
+  Fmpz a, b;
+  fmpz_mod(a.get(), fmpq_numref(x.get()), p.get());
+  fmpz_mod(b.get(), fmpq_denref(x.get()), p.get());
+  return fmpz_jacobi(a.get(), p.get()) * fmpz_jacobi(b.get(), p.get());
 }
 
 // Kronecker symbol (D/2) for an odd 2-adic number D = a/b (a, b odd): 1 if D ≡ ±1 mod 8, else −1.
@@ -112,16 +121,16 @@ int kronecker2(const Fmpq& x) {
 
 // The quadratic character of a form unimodular at p, r even: χ(p) = ((−1)^{r/2} det S / p) for p odd,
 // the Kronecker symbol (D/2) with D = (−1)^{r/2} det(2S) at p = 2 (MATH.md §4).
-int even_rank_chi(const QuadraticModel& m, ulong p) {
+int even_rank_chi(const QuadraticModel& m, const Fmpz& p) {
   Fmpq d = m.det_gram;
   if ((m.rank / 2) % 2 == 1) fmpq_neg(d.get(), d.get());
-  if (p != 2) return legendre(d, p);
+  if (fmpz_cmp_ui(p.get(), 2) != 0) return legendre(d, p);
   fmpq_mul_2exp(d.get(), d.get(), static_cast<ulong>(m.rank));  // det(2S) = 2^r det S
   return kronecker2(d);
 }
 
 // χ_u = ((−1)^{(r−1)/2} det S · u / p), r odd, p odd, u = X/p^v.
-int odd_rank_chi(const QuadraticModel& m, const Fmpq& X, ulong p, long v) {
+int odd_rank_chi(const QuadraticModel& m, const Fmpq& X, const Fmpz& p, long v) {
   Fmpq d = mul(m.det_gram, mul(X, ppow(p, -v)));
   if (((m.rank - 1) / 2) % 2 == 1) fmpq_neg(d.get(), d.get());
   return legendre(d, p);
@@ -133,12 +142,12 @@ int odd_rank_chi(const QuadraticModel& m, const Fmpq& X, ulong p, long v) {
 // for r even) times the Ramanujan sum c_{p^i}(X):
 //   r even: a_i = χ^i p^{i(1−r/2)}(1 − 1/p) for 1 ≤ i ≤ v, a_{v+1} = −χ^{v+1} p^{(v+1)(1−r/2)−1}.
 //   r odd:  MATH.md §4 (a_i = 0 for odd i ≤ v; the last one carries χ_u).
-Fmpq unimodular_arc(const QuadraticModel& m, const Fmpq& X, ulong p, long i) {
+Fmpq unimodular_arc(const QuadraticModel& m, const Fmpq& X, const Fmpz& p, long i) {
   if (i == 0) return Fmpq(1);
   const long r = m.rank;
   const long v = valuation(X, p);
   if (i > v + 1) return Fmpq(0);
-  const Fmpq one_minus = sub(Fmpq(1), Fmpq(1, p));
+  const Fmpq one_minus = sub(Fmpq(1), ppow(p, -1));
   if (r % 2 == 0) {
     const int chi = even_rank_chi(m, p);
     const int sign = (i % 2 == 0) ? 1 : chi;  // χ^i
@@ -157,7 +166,7 @@ Fmpq unimodular_arc(const QuadraticModel& m, const Fmpq& X, ulong p, long i) {
   return scale(ppow(p, (i * (2 - r) - 1) / 2), chi_u);  // χ_u p^{i(1−r/2) − 1/2}
 }
 
-Fmpq unimodular_level(const QuadraticModel& m, const Fmpq& X, ulong p, long j) {
+Fmpq unimodular_level(const QuadraticModel& m, const Fmpq& X, const Fmpz& p, long j) {
   Fmpq s(0);
   for (long i = 0; i <= j; ++i) s = add(s, unimodular_arc(m, X, p, i));
   return s;
@@ -165,7 +174,7 @@ Fmpq unimodular_level(const QuadraticModel& m, const Fmpq& X, ulong p, long j) {
 
 // β_p for r even written as the closed product–sum (not as Σ a_i, so that tests compare two forms):
 //   β_p = (1 − χ p^{−r/2}) · Σ_{i=0}^{v} (χ p^{1−r/2})^i.
-Fmpq unimodular_beta(const QuadraticModel& m, const Fmpq& X, ulong p) {
+Fmpq unimodular_beta(const QuadraticModel& m, const Fmpq& X, const Fmpz& p) {
   const long r = m.rank;
   const long v = valuation(X, p);
   if (r % 2 == 1) return unimodular_level(m, X, p, v + 1);
@@ -531,6 +540,10 @@ Fmpq local_density_by_counting(const QuadraticModel& model, const Fmpz& n, ulong
 }
 
 Fmpq local_density(const QuadraticModel& model, const Fmpz& n, ulong p) {
+  return local_density(model, n, Fmpz::from_ui(p));
+}
+
+Fmpq local_density(const QuadraticModel& model, const Fmpz& n, const Fmpz& p) {
   check_prime(p);
   check_model(model);
   const Fmpq X = model_X(model, n);
@@ -543,6 +556,10 @@ Fmpq local_density(const QuadraticModel& model, const Fmpz& n, ulong p) {
 }
 
 Fmpq local_density_level(const QuadraticModel& model, const Fmpz& n, ulong p, int j) {
+  return local_density_level(model, n, Fmpz::from_ui(p), j);
+}
+
+Fmpq local_density_level(const QuadraticModel& model, const Fmpz& n, const Fmpz& p, int j) {
   check_prime(p);
   check_model(model);
   if (j < 0) throw UserError("the exponent j must be non-negative (got " + std::to_string(j) + ")");
@@ -557,6 +574,10 @@ Fmpq local_density_level(const QuadraticModel& model, const Fmpz& n, ulong p, in
 }
 
 int local_density_stable_exponent(const QuadraticModel& model, const Fmpz& n, ulong p) {
+  return local_density_stable_exponent(model, n, Fmpz::from_ui(p));
+}
+
+int local_density_stable_exponent(const QuadraticModel& model, const Fmpz& n, const Fmpz& p) {
   check_prime(p);
   check_model(model);
   const Fmpq X = model_X(model, n);
@@ -570,6 +591,10 @@ int local_density_stable_exponent(const QuadraticModel& model, const Fmpz& n, ul
 }
 
 Fmpq local_arc_piece(const QuadraticModel& model, const Fmpz& n, ulong p, int j) {
+  return local_arc_piece(model, n, Fmpz::from_ui(p), j);
+}
+
+Fmpq local_arc_piece(const QuadraticModel& model, const Fmpz& n, const Fmpz& p, int j) {
   if (j < 0) throw UserError("the exponent j must be non-negative (got " + std::to_string(j) + ")");
   if (j == 0) {
     check_prime(p);
@@ -618,23 +643,21 @@ Fmpz det_square_class(const QuadraticModel& m) {
 
 }  // namespace
 
-std::vector<ulong> local_density_special_primes(const QuadraticModel& model, const Fmpz& n) {
+std::vector<Fmpz> local_density_special_primes(const QuadraticModel& model, const Fmpz& n) {
   check_model(model);
   const Fmpq X = model_X(model, n);
-  std::vector<ulong> out{2};
+  std::vector<Fmpz> out{Fmpz(2)};
   if (model.family.kind != FamilyKind::SumOfSquares) {
     for (ulong p = 3; p <= static_cast<ulong>(model.family.t); ++p)
-      if (model.family.t % static_cast<long>(p) == 0 && n_is_prime(p)) out.push_back(p);
+      if (model.family.t % static_cast<long>(p) == 0 && n_is_prime(p)) out.push_back(Fmpz::from_ui(p));
   }
   fmpz_factor_t f;
   fmpz_factor_init(f);
   fmpz_factor(f, fmpq_numref(X.get()));
   for (slong i = 0; i < f->num; ++i) {
-    if (!fmpz_abs_fits_ui(f->p + i)) {
-      fmpz_factor_clear(f);
-      throw UserError("X has a prime factor beyond 64 bits");
-    }
-    out.push_back(fmpz_get_ui(f->p + i));
+    Fmpz q;
+    fmpz_set(q.get(), f->p + i);
+    out.push_back(q);
   }
   fmpz_factor_clear(f);
   std::sort(out.begin(), out.end());
@@ -663,12 +686,16 @@ Fmpz local_character_discriminant(const QuadraticModel& model, const Fmpz& n) {
 }
 
 Fmpq local_density_generic_factor(const QuadraticModel& model, const Fmpz& n, ulong p) {
+  return local_density_generic_factor(model, n, Fmpz::from_ui(p));
+}
+
+Fmpq local_density_generic_factor(const QuadraticModel& model, const Fmpz& n, const Fmpz& p) {
   check_prime(p);
   const auto special = local_density_special_primes(model, n);
   if (std::binary_search(special.begin(), special.end(), p))
-    throw UserError("p = " + std::to_string(p) + " is a special prime for " + model.family.name() + " at n = " + n.str());
+    throw UserError("p = " + p.str() + " is a special prime for " + model.family.name() + " at n = " + n.str());
   const Fmpz D = local_character_discriminant(model, n);
-  const int chi = fmpz_kronecker(D.get(), Fmpz::from_ui(p).get());
+  const int chi = fmpz_kronecker(D.get(), p.get());
   const long r = model.rank;
   if (r % 2 == 0) return sub(Fmpq(1), scale(ppow(p, -r / 2), chi));
   return add(Fmpq(1), scale(ppow(p, (1 - r) / 2), chi));

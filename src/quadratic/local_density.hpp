@@ -14,6 +14,8 @@ namespace circlet {
 /// β_p(n) from the closed forms (p | t; good odd p, even and odd rank, any
 /// valuation of X; the 2-adic cases). Exact. p must be prime.
 Fmpq local_density(const QuadraticModel& model, const Fmpz& n, ulong p);
+/// The same for a prime of any size (e.g. a factor of X beyond 64 bits).
+Fmpq local_density(const QuadraticModel& model, const Fmpz& n, const Fmpz& p);
 
 /// Reference route, for tests and `verify` only: N_j(n)/p^{j(r−1)} by direct
 /// counting modulo p^j (dynamic programming over the coordinates).
@@ -22,10 +24,12 @@ Fmpq local_density_by_counting(const QuadraticModel& model, const Fmpz& n, ulong
 /// An exponent j such that N_j(n)/p^{j(r−1)} = β_p(n) (stabilisation is proved,
 /// not observed: it follows from Hensel lifting, see the implementation).
 int local_density_stable_exponent(const QuadraticModel& model, const Fmpz& n, ulong p);
+int local_density_stable_exponent(const QuadraticModel& model, const Fmpz& n, const Fmpz& p);
 
 /// The arc piece A_{p^j}(n)/p^{jw} = N_j/p^{j(r−1)} − N_{j−1}/p^{(j−1)(r−1)} for j ≥ 1
 /// (equal to 1 for j = 0). Exact; zero for j beyond the stable exponent.
 Fmpq local_arc_piece(const QuadraticModel& model, const Fmpz& n, ulong p, int j);
+Fmpq local_arc_piece(const QuadraticModel& model, const Fmpz& n, const Fmpz& p, int j);
 
 /// True when p | 2t (or p = 2 for sq_S), i.e. a prime where the closed forms
 /// for good primes do not apply; primes dividing X are handled by every form.
@@ -40,11 +44,14 @@ bool is_structural_prime(const QuadraticModel& model, ulong p);
 /// The normalised count N_j(n)/p^{j(r−1)} from the closed forms (no counting), j ≥ 0.
 /// Equals Σ_{i≤j} local_arc_piece(i) and equals local_density for j ≥ the stable exponent.
 Fmpq local_density_level(const QuadraticModel& model, const Fmpz& n, ulong p, int j);
+Fmpq local_density_level(const QuadraticModel& model, const Fmpz& n, const Fmpz& p, int j);
 
 /// The finite set of primes (ascending) at which β_p(n) may differ from the generic
 /// factor: the structural primes (p | 2t; p = 2 for sq_S) and the primes dividing the
-/// numerator of X = n + Δ in lowest terms. Factors X with FLINT.
-std::vector<ulong> local_density_special_primes(const QuadraticModel& model, const Fmpz& n);
+/// numerator of X = n + Δ in lowest terms. Factors X with FLINT. Primes may exceed 64 bits
+/// (X of c_t carries the factor 24 of its denominator into the numerator), so they are Fmpz;
+/// every closed-form function has an Fmpz-prime overload.
+std::vector<Fmpz> local_density_special_primes(const QuadraticModel& model, const Fmpz& n);
 
 /// The discriminant D of the quadratic character χ(p) = (D/p) (Kronecker symbol) that
 /// fixes β_p at every prime outside local_density_special_primes(model, n):
@@ -58,6 +65,7 @@ Fmpz local_character_discriminant(const QuadraticModel& model, const Fmpz& n);
 /// The generic factor at a prime p outside the special primes, from D above:
 /// 1 − (D/p)p^{−r/2} (r even), 1 + (D/p)p^{(1−r)/2} (r odd). Throws UserError if p is special.
 Fmpq local_density_generic_factor(const QuadraticModel& model, const Fmpz& n, ulong p);
+Fmpq local_density_generic_factor(const QuadraticModel& model, const Fmpz& n, const Fmpz& p);
 
 /// Counting reference: entry c (0 ≤ c < p^j) is #{x mod p^j : P(x) ≡ c (mod p^j)} (with
 /// Σx ≡ 0 for c_t). Separable forms (sc_t, sq_S) multiply one-variable histograms; c_t at
