@@ -8,6 +8,7 @@
 
 #include "arcs_cm_form.hpp"
 #include "mainterm/dirichlet_l.hpp"
+#include "mainterm/main_term.hpp"
 #include "quadratic/model.hpp"
 #include "series/eta_series.hpp"
 
@@ -78,4 +79,85 @@ TEST_CASE("a main term given only as a ball gives a ball remainder that is never
   Arb e;
   arb_set_d(e.get(), 0.375);
   CHECK(arb_contains(t.rows[0].remainder.get(), e.get()));
+}
+
+namespace {
+
+MainTermValue main_term_value(const QuadraticModel& model, const Fmpz& n) {
+  MainTermOptions o;
+  o.with_parts = false;
+  MainTerm m = main_term(model, n, 128, o);
+  MainTermValue v;
+  v.ball = m.ball;
+  v.exact = m.exact;
+  return v;
+}
+
+RemainderTable table_up_to(const char* family, long N) {
+  const auto model = quadratic_model(Family::parse(family));
+  IntegerSeries counts = family_series(model.family, N);
+  std::vector<Fmpz> ns, cs;
+  for (long n = 0; n <= N; ++n) {
+    if (fmpq_sgn(model.X(Fmpz(n)).get()) <= 0) continue;  // r_S(0): X = 0 has no main term
+    ns.emplace_back(n);
+    cs.push_back(counts.value(n));
+  }
+  return remainder_table(model, ns, cs, [&](const Fmpz& n) { return main_term_value(model, n); }, 128);
+}
+
+}  // namespace
+
+TEST_CASE("no cusp part: the remainder of c5 and sq5..sq8 is identically 0 for n <= 2000",
+          "[arcs][remainder][mainterm]") {
+  // c_5: MATH.md §3 (verified there by brute force); r_S for S = 5..8: the
+  // theta series of Z^S is an Eisenstein series for S ≤ 8 (E. Grosswald,
+  // Representations of Integers as Sums of Squares, Springer 1985, ch. 9 and 11).
+  for (const char* f : {"c5", "sq5", "sq6", "sq7", "sq8"}) {
+    RemainderTable t = table_up_to(f, 2000);
+    INFO(f);
+    CHECK(t.summary.identically_zero);
+    for (const auto& r : t.rows) {
+      if (!r.remainder_exact || !r.remainder_exact->is_zero()) {
+        INFO("n=" << r.n.str() << " E=" << r.remainder.str());
+        CHECK(arb_contains_zero(r.remainder.get()));
+      }
+    }
+    CHECK_FALSE(t.summary.fit.ok);  // nothing to fit
+  }
+}
+
+TEST_CASE("c7: E(n) = -a(n+2)/8 with the main term of src/mainterm", "[arcs][remainder][mainterm]") {
+  const long N = 2000;
+  RemainderTable t = table_up_to("c7", N);
+  const auto a = cm_form_7_coefficients(N + 2);
+  REQUIRE(t.rows.size() == N + 1);
+  long nonzero = 0;
+  for (long n = 0; n <= N; ++n) {
+    INFO("n=" << n);
+    REQUIRE(t.rows[n].remainder_exact.has_value());
+    CHECK(*t.rows[n].remainder_exact == Fmpq(-a[n + 2], 8));
+    nonzero += a[n + 2] != 0;
+  }
+  CHECK(nonzero > 100);  // the comparison is not vacuous
+  CHECK(t.summary.certified_violations == 0);
+}
+
+TEST_CASE("the fitted growth exponents of c9 and sc17 lie between Deligne - 0.25 and Hecke + 0.1",
+          "[arcs][remainder][fit][slow]") {
+  // w = 4 for both (r = 8): Deligne exponent (w−1)/2 = 1.5, Hecke w/2 = 2 (in X).
+  for (const char* f : {"c9", "sc17"}) {
+    RemainderTable t = table_up_to(f, 100000);
+    INFO(f << " exponent " << t.summary.fit.exponent << " +/- " << t.summary.fit.std_error);
+    REQUIRE(t.summary.fit.ok);
+    CHECK(t.summary.fit.exponent > t.summary.deligne_exponent - 0.25);
+    CHECK(t.summary.fit.exponent < t.summary.hecke_exponent + 0.1);
+    CHECK(t.summary.fit.std_error < 0.1);
+  }
+}
+
+TEST_CASE("the fitted growth exponent of c9 over n <= 20000 is in range (fast subset)", "[arcs][remainder][fit]") {
+  RemainderTable t = table_up_to("c9", 20000);
+  REQUIRE(t.summary.fit.ok);
+  CHECK(t.summary.fit.exponent > 1.25);
+  CHECK(t.summary.fit.exponent < 2.1);
 }
