@@ -1,0 +1,198 @@
+// `circlet count FAMILY (--to N | --at N | --ap A,B --to K) [--json] [-o FILE]`:
+// exact counts from the series engine (src/series/), as CSV or JSON.
+#include <chrono>
+#include <climits>
+#include <cstdio>
+#include <iostream>
+#include <memory>
+#include <string>
+
+#include <nlohmann/json.hpp>
+
+#include "cli/command.hpp"
+#include "core/atomic_file.hpp"
+#include "core/error.hpp"
+#include "core/provenance.hpp"
+#include "family/family.hpp"
+#include "family/progression.hpp"
+#include "series/eta_series.hpp"
+
+namespace circlet::cli {
+
+namespace {
+
+struct CountOptions {
+  std::string family;
+  std::string to, at, ap;
+  bool json = false;
+  std::string output;
+};
+
+// Shows "circlet count: <stage> <pct>%" on stderr, only when stderr is a terminal
+// and the run has lasted more than two seconds; clears the line at the end.
+class ProgressLine {
+ public:
+  ProgressLine() : enabled_(stderr_is_terminal()), start_(Clock::now()) {}
+  ~ProgressLine() { finish(); }
+  void update(const std::string& stage, double fraction) {
+    if (!enabled_) return;
+    const auto now = Clock::now();
+    if (now - start_ < std::chrono::seconds(2)) return;
+    if (shown_ && now - last_ < std::chrono::milliseconds(200)) return;
+    last_ = now;
+    shown_ = true;
+    std::fprintf(stderr, "\rcirclet count: %-14s %5.1f%%", stage.c_str(), 100.0 * fraction);
+    std::fflush(stderr);
+  }
+  void finish() {
+    if (shown_) std::fprintf(stderr, "\r\033[K");
+    shown_ = false;
+  }
+
+ private:
+  using Clock = std::chrono::steady_clock;
+  bool enabled_;
+  bool shown_ = false;
+  Clock::time_point start_, last_;
+};
+
+std::string eta_quotient_text(const EtaQuotient& q) {
+  std::string s;
+  for (const auto& f : q) {
+    if (!s.empty()) s += " ";
+    s += "E(q^" + std::to_string(f.d) + ")^" + std::to_string(f.e);
+  }
+  return s.empty() ? "1" : s;
+}
+
+void run_count(const CountOptions& opt) {
+  const Family family = Family::parse(opt.family);
+  const bool has_to = !opt.to.empty(), has_at = !opt.at.empty(), has_ap = !opt.ap.empty();
+  if (has_to && has_at) throw UserError("give either --to N or --at N, not both");
+  if (has_ap && !has_to) throw UserError("--ap A,B needs --to K (the progression is A*k+B for k = 0..K)");
+  if (!has_to && !has_at) throw UserError("give --to N, --at N or --ap A,B --to K");
+
+  // The rows to print: n = first + step·k for k = 0..count−1 (or the progression).
+  Progression prog;
+  long K = 0, n_max = 0;
+  std::string form;
+  if (has_ap) {
+    prog = Progression::parse(opt.ap);
+    K = parse_nonnegative("--to", opt.to, LONG_MAX);
+    n_max = prog.at(K);  // UserError on 64-bit overflow of A·K + B
+    form = "ap";
+  } else if (has_to) {
+    n_max = parse_nonnegative("--to", opt.to, LONG_MAX);
+    form = "to";
+  } else {
+    n_max = parse_nonnegative("--at", opt.at, LONG_MAX);
+    form = "at";
+  }
+
+  SeriesPlan plan = plan_family_series(family, n_max);
+  check_resources(plan);
+
+  // Open the output before the long computation so that an unwritable path fails fast.
+  std::unique_ptr<AtomicFile> file;
+  if (!opt.output.empty()) file = std::make_unique<AtomicFile>(opt.output);
+
+  IntegerSeries series;
+  {
+    ProgressLine line;
+    series = compute_series(plan, [&line](const std::string& stage, double f) { line.update(stage, f); });
+  }
+
+  std::ostream& out = file ? file->stream() : std::cout;
+  const Provenance prov = Provenance::now(command_line());
+  std::string buf;
+  buf.reserve(1 << 20);
+  auto flush_if_big = [&]() {
+    if (buf.size() >= (1u << 20)) {
+      out.write(buf.data(), static_cast<std::streamsize>(buf.size()));
+      buf.clear();
+    }
+  };
+  const long first = has_at ? n_max : 0;
+  const long rows = has_ap ? K + 1 : (has_at ? 1 : n_max + 1);
+  auto n_of = [&](long i) { return has_ap ? prog.A * i + prog.B : first + i; };
+
+  if (opt.json) {
+    nlohmann::json head;
+    head["provenance"] = prov.to_json();
+    head["family"] = family.name();
+    head["description"] = family.description();
+    head["generating_function"] = eta_quotient_text(plan.quotient) + "  (E(x) = prod_{k>=1} (1 - x^k))";
+    head["form"] = form;
+    if (has_ap) {
+      head["A"] = prog.A;
+      head["B"] = prog.B;
+      head["K"] = K;
+    } else {
+      head["N"] = n_max;
+    }
+    head["method"] = {{"bound", plan.bound.method},
+                      {"bound_bits", static_cast<long>(fmpz_bits(plan.bound.bound.get()))},
+                      {"fft_primes", plan.primes},
+                      {"reconstruction", plan.bound.nonnegative ? "CRT in [0, M)" : "CRT in (-M/2, M/2]"}};
+    head["columns"] = has_ap ? nlohmann::json{"k", "n", "count"} : nlohmann::json{"n", "count"};
+    std::string h = head.dump(2);
+    // Append the rows by hand: counts are exact integers of any size, written as
+    // JSON number literals (nlohmann's numbers are limited to 64 bits).
+    h.erase(h.find_last_of('}'));
+    while (!h.empty() && (h.back() == '\n' || h.back() == ' ')) h.pop_back();
+    buf += h;
+    buf += ",\n  \"rows\": [";
+    for (long i = 0; i < rows; ++i) {
+      buf += i ? ",\n    [" : "\n    [";
+      if (has_ap) {
+        buf += std::to_string(i);
+        buf += ',';
+      }
+      buf += std::to_string(n_of(i));
+      buf += ',';
+      append_decimal(buf, series.at(n_of(i)));
+      buf += ']';
+      flush_if_big();
+    }
+    buf += "\n  ]\n}\n";
+  } else {
+    if (file) buf += prov.csv_comment();
+    buf += has_ap ? "k,n,count\n" : "n,count\n";
+    for (long i = 0; i < rows; ++i) {
+      if (has_ap) {
+        buf += std::to_string(i);
+        buf += ',';
+      }
+      buf += std::to_string(n_of(i));
+      buf += ',';
+      append_decimal(buf, series.at(n_of(i)));
+      buf += '\n';
+      flush_if_big();
+    }
+  }
+  out.write(buf.data(), static_cast<std::streamsize>(buf.size()));
+  if (file) {
+    file->commit();
+  } else {
+    out.flush();
+    if (!out) throw UserError("writing to standard output failed");
+  }
+}
+
+const Registration registration{CommandSpec{
+    "count", 10, [](CLI::App& app) {
+      auto opt = std::make_shared<CountOptions>();
+      auto* cmd = app.add_subcommand("count", "exact counts c_t(n), sc_t(n), r_S(n) from the generating function");
+      cmd->add_option("family", opt->family, "family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S>")
+          ->required();
+      cmd->add_option("--to", opt->to, "all n = 0..N (with --ap: k = 0..K)");
+      cmd->add_option("--at", opt->at, "the single value n = N");
+      cmd->add_option("--ap", opt->ap, "progression A,B: rows n = A*k+B for k = 0..K (needs --to K)");
+      cmd->add_flag("--json", opt->json, "JSON output with provenance instead of CSV");
+      cmd->add_option("-o,--output", opt->output, "write to FILE (atomically) instead of standard output");
+      cmd->callback([opt]() { run_count(*opt); });
+    }}};
+
+}  // namespace
+
+}  // namespace circlet::cli

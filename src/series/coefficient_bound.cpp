@@ -1,0 +1,144 @@
+#include "series/coefficient_bound.hpp"
+
+#include <arb.h>
+#include <flint/fmpz.h>
+
+#include <cmath>
+#include <cstdlib>
+
+#include "core/error.hpp"
+
+namespace circlet {
+
+namespace {
+
+// (s + 1)^k for s = ⌊sqrt(⌊num / den⌋)⌋, i.e. (⌊sqrt(num/den)⌋ + 1)^k.
+// ⌊sqrt(⌊y⌋)⌋ = ⌊sqrt(y)⌋ for real y ≥ 0, so the integer square root is exact.
+Fmpz box_power(const Fmpz& num, const Fmpz& den, long k) {
+  Fmpz q, s;
+  fmpz_fdiv_q(q.get(), num.get(), den.get());
+  fmpz_sqrt(s.get(), q.get());
+  fmpz_add_ui(s.get(), s.get(), 1);
+  Fmpz out;
+  fmpz_pow_ui(out.get(), s.get(), static_cast<ulong>(k));
+  return out;
+}
+
+}  // namespace
+
+CoefficientBound family_coefficient_bound(const Family& family, long N) {
+  CIRCLET_ASSERT(N >= 0, "coefficient bound for negative N");
+  const long t = family.t;
+  CoefficientBound r;
+  r.nonnegative = true;  // every family counts something
+  switch (family.kind) {
+    case FamilyKind::Core: {
+      // c_t(n) = #{x ∈ Z^t : Σx_i = 0, (t/2)Σx_i² + Σ i·x_i = n}   (MATH.md §2).
+      // With c_i = i/t − (t−1)/(2t) (so Σc_i = 0 and Σ c_i x_i = Σ i x_i / t when Σx = 0):
+      //   (t/2) Σ (x_i + c_i)² = n + (t/2)Σc_i² = n + (t² − 1)/24 = X,
+      // because Σ c_i² = Σ (i − (t−1)/2)² / t² = (t² − 1)/(12 t).
+      // Hence (x_i + c_i)² ≤ 2X/t: each x_i lies in an interval of length
+      // L = 2·sqrt(2X/t), which holds at most ⌊L⌋ + 1 integers. x_0..x_{t−2}
+      // are free and x_{t−1} = −Σ the others, so
+      //   c_t(n) ≤ (⌊2·sqrt(2X/t)⌋ + 1)^{t−1},  L² = 8X/t = (24n + t² − 1)/(3t).
+      // The right side increases with n, so n = N bounds all n ≤ N.
+      Fmpz num = Fmpz(24) , den = Fmpz(3 * t);
+      fmpz_mul_si(num.get(), num.get(), N);
+      fmpz_add_si(num.get(), num.get(), t * t - 1);
+      r.bound = box_power(num, den, t - 1);
+      r.method = "box bound c_t(n) <= (floor(2 sqrt(2X/t)) + 1)^(t-1), X = n + (t^2-1)/24";
+      return r;
+    }
+    case FamilyKind::SelfConjugateCore: {
+      // sc_t(n) = #{y ∈ Z^m : t Σ y_i² + Σ (2i+1−t) y_i = n},  m = ⌊t/2⌋   (MATH.md §2).
+      // With c_i = (2i+1−t)/(2t):  t Σ (y_i + c_i)² = n + Σ (2i+1−t)²/(4t) = X.
+      // So (y_i + c_i)² ≤ X/t: each y_i lies in an interval of length 2·sqrt(X/t),
+      //   sc_t(n) ≤ (⌊2·sqrt(X/t)⌋ + 1)^m,  (2·sqrt(X/t))² = 4X/t = (4tn + S)/t²,
+      // S = Σ_{i<m} (2i+1−t)². Increasing in n, so n = N bounds all n ≤ N.
+      const long m = t / 2;
+      Fmpz S(0);
+      for (long i = 0; i < m; ++i) fmpz_add_ui(S.get(), S.get(), static_cast<ulong>((2 * i + 1 - t) * (2 * i + 1 - t)));
+      Fmpz num(4 * t), den(t * t);
+      fmpz_mul_si(num.get(), num.get(), N);
+      fmpz_add(num.get(), num.get(), S.get());
+      r.bound = box_power(num, den, m);
+      r.method = "box bound sc_t(n) <= (floor(2 sqrt(X/t)) + 1)^m, X = n + sum (2i+1-t)^2/(4t)";
+      return r;
+    }
+    case FamilyKind::SumOfSquares: {
+      // r_S(n) = #{x ∈ Z^S : Σ x_i² = n}: each |x_i| ≤ sqrt(n), an interval of
+      // length 2·sqrt(n) holding at most 2⌊sqrt(n)⌋ + 1 integers, so
+      //   r_S(n) ≤ (2⌊sqrt(n)⌋ + 1)^S, increasing in n.
+      Fmpz s;
+      fmpz_sqrt(s.get(), Fmpz(N).get());
+      fmpz_mul_ui(s.get(), s.get(), 2);
+      fmpz_add_ui(s.get(), s.get(), 1);
+      fmpz_pow_ui(r.bound.get(), s.get(), static_cast<ulong>(t));
+      r.method = "box bound r_S(n) <= (2 floor(sqrt n) + 1)^S";
+      return r;
+    }
+  }
+  CIRCLET_ASSERT(false, "unknown family kind");
+  return r;
+}
+
+CoefficientBound eta_quotient_coefficient_bound(const EtaQuotient& quotient, long N, slong prec) {
+  CIRCLET_ASSERT(N >= 0, "coefficient bound for negative N");
+  CoefficientBound r;
+  r.nonnegative = false;
+  r.method = "majorant |[q^n]F| <= [q^n]E(q)^(-A) <= exp(A pi^2/6 x/(1-x)) / x^n, A = sum |e_d|";
+  long A = 0;
+  for (const auto& f : quotient) {
+    CIRCLET_ASSERT(f.d >= 1, "eta factor with d < 1");
+    A += std::labs(f.e);
+  }
+  // The constant term of every such product is 1; with A = 0 the product is 1.
+  if (A == 0 || N == 0) {
+    r.bound = Fmpz(1);
+    return r;
+  }
+  // Majorant: (1 − q^{dk})^{e} with e > 0 is coefficientwise dominated in absolute
+  // value by (1 + q^{dk})^{e}, itself dominated by (1 − q^{dk})^{−e}; so |F| is
+  // dominated by Π_d Π_k (1 − q^{dk})^{−|e_d|}, and Π_k (1 − q^{dk})^{−1} is
+  // dominated by Π_k (1 − q^k)^{−1} (the missing factors have non-negative
+  // coefficients and constant term 1). Hence |[q^n]F| ≤ [q^n] E(q)^{−A}.
+  // For a series G with non-negative coefficients, [q^n]G ≤ G(x)/x^n (0 < x < 1), and
+  //   log E(x)^{−A} = A Σ_{m≥1} (1/m) x^m/(1 − x^m) ≤ A Σ 1/m² · x/(1 − x) = A π²/6 · x/(1 − x),
+  // using 1 − x^m ≥ m x^{m−1}(1 − x). Both sides increase with n for fixed x, so
+  // the value at n = N bounds every n ≤ N.
+  // Choose x (doubles only pick the point): minimise c·x/(1−x) − N log x, c = Aπ²/6,
+  // i.e. solve c·x = N(1 − x)² on (0, 1) by bisection.
+  const double c = static_cast<double>(A) * M_PI * M_PI / 6.0;
+  const double n = static_cast<double>(N);
+  double lo = 0.0, hi = 1.0;
+  for (int i = 0; i < 200; ++i) {
+    double mid = 0.5 * (lo + hi);
+    if (c * mid < n * (1 - mid) * (1 - mid)) lo = mid; else hi = mid;
+  }
+  double x = lo;
+  if (!(x > 0.0 && x < 1.0)) x = 0.5;
+  arb_t xb, one_minus, pi2, expo, xn, val;
+  arb_init(xb); arb_init(one_minus); arb_init(pi2); arb_init(expo); arb_init(xn); arb_init(val);
+  arb_set_d(xb, x);  // exact dyadic
+  arb_sub_si(one_minus, xb, 1, prec);
+  arb_neg(one_minus, one_minus);           // 1 − x
+  arb_const_pi(pi2, prec);
+  arb_sqr(pi2, pi2, prec);
+  arb_mul_si(pi2, pi2, A, prec);
+  arb_div_ui(pi2, pi2, 6, prec);            // A π²/6
+  arb_mul(expo, pi2, xb, prec);
+  arb_div(expo, expo, one_minus, prec);     // A π²/6 · x/(1 − x)
+  arb_exp(val, expo, prec);
+  arb_pow_ui(xn, xb, static_cast<ulong>(N), prec);
+  arb_div(val, val, xn, prec);              // exp(...)/x^N
+  arf_t ub;
+  arf_init(ub);
+  arb_get_ubound_arf(ub, val, prec);
+  CIRCLET_ASSERT(arf_is_finite(ub), "coefficient bound is not finite");
+  arf_get_fmpz(r.bound.get(), ub, ARF_RND_CEIL);
+  arf_clear(ub);
+  arb_clear(xb); arb_clear(one_minus); arb_clear(pi2); arb_clear(expo); arb_clear(xn); arb_clear(val);
+  return r;
+}
+
+}  // namespace circlet
