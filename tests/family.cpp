@@ -23,7 +23,7 @@ TEST_CASE("bad family names are rejected with a clear message", "[family][errors
   CHECK_THROWS_AS(Family::parse("c99999999999"), UserError);
 }
 
-TEST_CASE("ranks follow MATH.md section 2; c_t and sc_{2t-1} share a weight", "[family]") {
+TEST_CASE("ranks follow MATH.md section 2, and c_t and sc_{2t-1} share a weight", "[family]") {
   CHECK(Family::parse("c7").rank() == 6);
   CHECK(Family::parse("sc7").rank() == 3);
   CHECK(Family::parse("sc8").rank() == 4);

@@ -20,7 +20,7 @@ TEST_CASE("bad progressions are rejected with a clear message", "[progression_sp
   CHECK_THROWS_WITH(Progression::parse("x,1"), Catch::Contains("expects a non-negative integer"));
   CHECK_THROWS_WITH(Progression::parse(",1"), Catch::Contains("expects a non-negative integer"));
   CHECK_THROWS_WITH(Progression::parse("99999999999999999999,1"), Catch::Contains("too large"));
-  CHECK_THROWS_WITH(Progression{LONG_MAX / 2, 5}.at(3), Catch::Contains("exceeds 64-bit"));
+  CHECK_THROWS_WITH((Progression{LONG_MAX / 2, 5}.at(3)), Catch::Contains("exceeds 64-bit"));
 }
 
 TEST_CASE("non-negative integers are parsed strictly", "[progression_spec][errors]") {
