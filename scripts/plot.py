@@ -396,6 +396,23 @@ def ratio_points(table):
     return n, exact, main
 
 
+def ratio_from_counts(tf, tg):
+    """A ratio table from two `circlet count FAMILY --ap A,B --to K` outputs (F over G), row by row."""
+    pf, of = command_options(tf.provenance.get("command", "") or "")
+    pg, og = command_options(tg.provenance.get("command", "") or "")
+    F = (tf.meta or {}).get("family") or next((p for p in pf if family_parts(p)[0]), "F")
+    G = (tg.meta or {}).get("family") or next((p for p in pg if family_parts(p)[0]), "G")
+    cf, cg = tf.col("count"), tg.col("count")
+    rows = []
+    for i, (a, b) in enumerate(zip(cf, cg)):
+        a, b = int(a), int(b)
+        rows.append([i, a, b, str(Fraction(a, b)) if b else "undefined"])
+    prov = dict(tf.provenance)
+    prov["command"] = "%s ; %s" % (tf.provenance.get("command", "?"), tg.provenance.get("command", "?"))
+    meta = {"F": F, "G": G, "ap": of.get("--ap") or "1,0", "ap2": og.get("--ap") or "1,0"}
+    return Table(["n", "count_F", "count_G", "ratio"], rows, prov, meta, tf.path)
+
+
 def cert_bands(cert):
     """[(label, lo, hi, residue or None, modulus or None)] from a certificate."""
     bands = []
@@ -499,12 +516,20 @@ def plot_remainder(table, out):
     ftex = family_tex(fam, arg) if fam else "F(n)"
     w = weight_tex(r) if r else "w"
     if pts:
-        ax.plot(*zip(*pts), ".", ms=2.5, color="tab:blue",
+        ax.plot(*zip(*pts), ".", ms=2.5, color="tab:blue", zorder=3,
                 label=r"$E(n)/X^{(w-1)/2}$, $E = %s - M(%s)$" % (ftex, arg))
     # Reference lines, in units of the Deligne scale X^{(w−1)/2}: the Deligne
     # scale itself is ±1; the Hecke scale X^{w/2} is ±X^{1/2}.
     ax.axhline(1, color="tab:green", lw=1.2, label=r"Deligne scale $\pm X^{(w-1)/2}$")
     ax.axhline(-1, color="tab:green", lw=1.2)
+    # A certified bound |E(n)| ≤ B(n), when the command offers one (c7: d(n+2)(n+2)/8).
+    if table.find("certified_bound"):
+        cb = [(k, to_float(b), x) for k, b, x in zip(n, table.col("certified_bound"), X)]
+        cb = [(k, b / x ** ((r / 2 - 1) / 2)) for k, b, x in cb if b is not None and x > 0]
+        if cb:
+            ax.plot(*zip(*cb), ".", ms=1.2, color="tab:purple", alpha=0.3, zorder=1,
+                    label=r"certified bound $\pm B(n)/X^{(w-1)/2}$")
+            ax.plot([k for k, _ in cb], [-v for _, v in cb], ".", ms=1.2, color="tab:purple", alpha=0.3, zorder=1)
     xs = sorted(zip(n, X))
     ax.plot([k for k, _ in xs], [math.sqrt(x) for _, x in xs], color="tab:red", lw=1.2,
             label=r"Hecke scale $\pm X^{w/2}$")
@@ -632,6 +657,9 @@ def main(argv=None):
     p.add_argument("-o", "--output", required=True, action="append",
                    help="FILE.png or FILE.svg (repeat to write both from one run)")
     p.add_argument("--cert", help="ratio: certificate JSON from 'circlet certify' (bands)")
+    p.add_argument("--over", metavar="G_COUNTS",
+                   help="ratio: INPUT is 'circlet count F --ap A,B --to K' output and G_COUNTS the same for G; "
+                        "the exact ratios are formed here")
     p.add_argument("--main", help="arcs: JSON from 'circlet main --json' with the main-term ball")
     a = p.parse_args(argv)
     try:
@@ -639,6 +667,15 @@ def main(argv=None):
     except (OSError, ValueError) as e:
         print("plot.py: error: cannot read %s: %s" % (a.input, e), file=sys.stderr)
         return 2
+    if a.over:
+        if a.kind != "ratio":
+            print("plot.py: error: --over is for the ratio plot", file=sys.stderr)
+            return 2
+        try:
+            table = ratio_from_counts(table, load_table(a.over))
+        except (OSError, ValueError, KeyError) as e:
+            print("plot.py: error: cannot form the ratio with %s: %s" % (a.over, e), file=sys.stderr)
+            return 2
     if len(table) == 0:
         print("plot.py: error: %s has no rows to plot" % a.input, file=sys.stderr)
         return 2

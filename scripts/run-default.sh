@@ -96,7 +96,12 @@ if have ratio; then
   [ -f "$out/cert_c6_1_0__sc11_1_0.json" ] && cert=(--cert cert_c6_1_0__sc11_1_0.json)
   plot_to ratio ratio_c6_sc11.csv ratio_c6_sc11.png "${cert[@]}"
 else
-  step "'circlet ratio' is not in this build: ratio table and plot skipped"
+  step "'circlet ratio' is not in this build: ratio plot from exact counts (circlet count --ap)"
+  run count c6 --ap 1,0 --to 200 -o ratio_c6_counts.csv
+  run count sc11 --ap 1,0 --to 200 -o ratio_sc11_counts.csv
+  cert=()
+  [ -f "$out/cert_c6_1_0__sc11_1_0.json" ] && cert=(--cert cert_c6_1_0__sc11_1_0.json)
+  plot_to ratio ratio_c6_counts.csv ratio_c6_sc11.png --over ratio_sc11_counts.csv "${cert[@]}"
 fi
 
 # Remainder: c7 (weight 3; the cusp part is -a(n+2)/8, MATH.md §3) and c6 (weight 5/2).

@@ -133,6 +133,23 @@ TEST_CASE("plot.py ratio: exact ratio points and the certificate's bands, PNG si
   CHECK(svg.find("certificate: ") != std::string::npos);           // legend title: the verdict
 }
 
+TEST_CASE("plot.py ratio --over: exact ratios formed from two `circlet count --ap` outputs, with a certificate", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("certify");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " count c7 --ap 2,1 --to 80 -o " + d + "/f.csv >/dev/null 2>&1") == 0);
+  REQUIRE(run(kCirclet + " count sc13 --ap 1,0 --to 80 -o " + d + "/g.csv >/dev/null 2>&1") == 0);
+  REQUIRE(run(kCirclet + " certify c7 sc13 --ap 2,1 --ap2 1,0 -o " + d + "/cert.json >/dev/null 2>&1") == 0);
+  std::string svg = render_both("ratio", d + "/f.csv", "--over " + d + "/g.csv --cert " + d + "/cert.json", d, "ratio");
+  CHECK(svg_has_label(svg, "$n$"));
+  CHECK(svg_has_label(svg, "$R(n) = c_{7}(2n+1)\\,/\\,\\mathrm{sc}_{13}(n)$"));
+  CHECK(svg.find("n = 0,\\dots,80") != std::string::npos);  // the title states the range
+  CHECK(svg.find("circlet count c7 --ap 2,1 --to 80") != std::string::npos);
+  CHECK(svg.find("circlet certify c7 sc13") != std::string::npos);
+}
+
 TEST_CASE("plot.py remainder: normalised E(n) with the Deligne and Hecke scales", "[plots]") {
   CIRCLET_NEED_PYTHON();
   CIRCLET_NEED_COMMAND("remainder");
