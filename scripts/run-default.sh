@@ -29,8 +29,8 @@ job="$out/JOB.txt"
   echo "circlet default job"
   echo "version: $("$circlet" --version)"
   echo "date:    $(date -u +%Y-%m-%dT%H:%M:%SZ)"
-  echo "binary:  $circlet"
-  echo "commands (run from $out):"
+  echo "binary:  ${circlet#$here/}"
+  echo "commands (run from ${out#$here/}):"
 } >"$job"
 
 have() { "$circlet" --help 2>/dev/null | grep -qE "^  $1 "; }
