@@ -57,6 +57,37 @@ zz_pX jacobi_cube_series(long L) {
   return a;
 }
 
+// g = f^{−1} mod x^L (f(0) invertible) by Newton iteration on NTL FFT
+// representations, with two 2^s-point buffers only (NTL's InvTrunc peaks at
+// about twice that memory). From g = f^{−1} mod x^k to length m ≤ 2k:
+//   f·g ≡ 1 + x^k h (mod x^m),  f^{−1} ≡ g − x^k (g·h mod x^{m−k}) (mod x^m).
+// h is read from the cyclic product f·g mod (x^{2^s} − 1), 2^s ≥ m: the
+// wrapped terms (degrees ≥ 2^s, at most m + k − 2) land below k, outside h.
+void newton_inverse(zz_pX& g, const zz_pX& f, long L) {
+  std::vector<long> lengths;
+  for (long m = L; m > 4096; m = (m + 1) / 2) lengths.push_back(m);
+  const long start = lengths.empty() ? L : (lengths.back() + 1) / 2;
+  NTL::InvTrunc(g, f, start);
+  NTL::fftRep Rg, Rw;
+  zz_pX h, t;
+  long k = start;
+  for (auto it = lengths.rbegin(); it != lengths.rend(); ++it) {
+    const long m = *it;
+    const long s = NTL::NextPowerOfTwo(m);
+    NTL::TofftRep(Rg, g, s);
+    NTL::TofftRep(Rw, f, s, 0, std::min(m - 1, NTL::deg(f)));
+    NTL::mul(Rw, Rw, Rg);
+    NTL::FromfftRep(h, Rw, k, m - 1);  // h = coefficients k..m−1 of f·g
+    NTL::TofftRep(Rw, h, s);
+    NTL::mul(Rw, Rw, Rg);
+    NTL::FromfftRep(t, Rw, 0, m - k - 1);  // t = g·h mod x^{m−k}
+    g.rep.SetLength(m);
+    for (long i = k; i < m; ++i) g.rep[i] = (i - k <= NTL::deg(t)) ? -t.rep[i - k] : zz_p(0);
+    g.normalize();
+    k = m;
+  }
+}
+
 // E(q)^e mod p to length L, any integer e.
 zz_pX euler_power(long e, long L) {
   zz_pX r;
@@ -79,7 +110,11 @@ zz_pX euler_power(long e, long L) {
       NTL::MulTrunc(b, b, b, L);
     }
   }
-  if (e < 0) NTL::InvTrunc(r, r, L);
+  if (e < 0) {
+    zz_pX inv;
+    newton_inverse(inv, r, L);
+    return inv;
+  }
   return r;
 }
 
@@ -93,6 +128,8 @@ long coefficient_rep(const zz_pX& a, long i) { return i <= NTL::deg(a) ? NTL::re
 
 // F(Q) · G(Q^m) for F of length L: split F by exponent mod m,
 // F = Σ_r Q^r F_r(Q^m), and multiply each F_r by G at length ⌈(L − r)/m⌉.
+// G is transformed once (truncated FFT of the full product length, so no
+// wrap-around) and reused for all m phases.
 zz_pX mul_polyphase(const zz_pX& F, long L, const zz_pX& G, long m) {
   if (m == 1) {
     zz_pX out;
@@ -101,13 +138,23 @@ zz_pX mul_polyphase(const zz_pX& F, long L, const zz_pX& G, long m) {
   }
   zz_pX out;
   out.rep.SetLength(L);
+  const long len0 = (L - 1) / m + 1;  // the longest phase
+  const long dG = std::min(NTL::deg(G), len0 - 1);
+  if (dG < 0) return out;  // G = 0
+  const long plen = len0 + dG;          // product length of a phase, untruncated
+  const long s = NTL::NextPowerOfTwo(plen);
+  NTL::fftRep RG, RF;
+  NTL::TofftRep_trunc(RG, G, s, plen, 0, dG);
   zz_pX Fr, Hr;
   for (long r = 0; r < m && r < L; ++r) {
     const long len = (L - 1 - r) / m + 1;
     Fr.rep.SetLength(len);
     for (long j = 0; j < len; ++j) Fr.rep[j].LoopHole() = coefficient_rep(F, r + j * m);
     Fr.normalize();
-    NTL::MulTrunc(Hr, Fr, G, len);
+    if (NTL::deg(Fr) < 0) continue;
+    NTL::TofftRep_trunc(RF, Fr, s, plen);
+    NTL::mul(RF, RF, RG);
+    NTL::FromfftRep(Hr, RF, 0, len - 1);
     const long top = std::min(len - 1, NTL::deg(Hr));
     for (long j = 0; j <= top; ++j) out.rep[r + j * m] = Hr.rep[j];
   }
@@ -234,14 +281,17 @@ SeriesPlan make_plan(const EtaQuotient& quotient, long N, int threads, Coefficie
     plan.primes.push_back(p);
     fmpz_mul_ui(M.get(), M.get(), p);
   }
-  // Memory model (bytes), calibrated on NTL 11.5 (peak of InvTrunc at length L
-  // is about 100·L bytes): per active thread 120·(N+1), residues 8·k·(N+1),
-  // output fmpz 8·(N+1) plus, for values above 2^62, a GMP integer each.
+  // Memory model (bytes), calibrated on NTL 11.5 by /usr/bin/time -v: a worker
+  // thread peaks in newton_inverse at length L = N + 1 with two 2^s-point FFT
+  // buffers (2^s ≥ L, 8 bytes a point) and about three series of length L;
+  // residues take 8·k·L, the output fmpz array 8·L plus, when the bound exceeds
+  // 2^62, a GMP integer per coefficient (header, limbs, allocator overhead).
   const double len = static_cast<double>(N) + 1;
   const double k = static_cast<double>(plan.primes.size());
   const double active = std::min<double>(plan.threads, k);
   const double bits = static_cast<double>(fmpz_bits(plan.bound.bound.get())) + 1;
-  double bytes = active * (120.0 * len + 16e6) + 8.0 * k * len + 8.0 * len;
+  const double fft_points = std::exp2(std::ceil(std::log2(len)));
+  double bytes = active * (16.0 * fft_points + 24.0 * len + 16e6) + 8.0 * k * len + 8.0 * len;
   if (bits > 62) bytes += len * (48.0 + 8.0 * std::ceil(bits / 64.0));
   plan.memory_bytes = bytes;
   return plan;
