@@ -118,7 +118,7 @@ TEST_CASE("partial sums plus the tail bound contain the main term of src/mainter
   }
 }
 
-TEST_CASE("bad arguments are rejected with a clear message", "[arcs][terms][errors]") {
+TEST_CASE("arc_expansion rejects K = 0 and X <= 0 with a clear message", "[arcs][terms][errors]") {
   const auto model = quadratic_model(Family::parse("c5"));
   CHECK_THROWS_WITH(arc_expansion(model, Fmpz(5), 0, 64), "--upto must be at least 1");
   CHECK_THROWS_WITH(arc_expansion(model, Fmpz(-5), 3, 64), Catch::Contains("is not positive"));
