@@ -1,5 +1,8 @@
 #include "scan/exact_compare.hpp"
 
+#include <algorithm>
+#include <map>
+
 #include "core/error.hpp"
 
 namespace circlet {
@@ -74,8 +77,22 @@ std::string ExactComparison::describe() const {
   std::string s = relation_name(whole.relation);
   if (whole.relation == Relation::Proportional) s += " k=" + whole.k.str();
   if (whole.relation == Relation::NotProportional && whole.witness >= 0) s += " (fails at n=" + std::to_string(whole.witness) + ")";
-  for (const auto& x : sub)
-    s += "; n=" + std::to_string(x.j) + " mod " + std::to_string(x.p) + ": proportional k=" + x.k.str();
+  // Group by p: "k=2 on n mod 7 except n = 4" when most classes share one k.
+  std::map<long, std::vector<const SubProportionality*>> by_p;
+  for (const auto& x : sub) by_p[x.p].push_back(&x);
+  for (const auto& [p, xs] : by_p) {
+    std::map<std::string, std::vector<long>> by_k;
+    for (const auto* x : xs) by_k[x->k.str()].push_back(x->j);
+    for (const auto& [k, js] : by_k) {
+      if (2 * static_cast<long>(js.size()) > p) {
+        s += "; proportional k=" + k + " on n mod " + std::to_string(p) + " except n =";
+        for (long j = 0; j < p; ++j)
+          if (std::find(js.begin(), js.end(), j) == js.end()) s += " " + std::to_string(j);
+      } else {
+        for (long j : js) s += "; n=" + std::to_string(j) + " mod " + std::to_string(p) + ": proportional k=" + k;
+      }
+    }
+  }
   for (const auto& v : vanishing)
     s += "; n=" + std::to_string(v.second) + " mod " + std::to_string(v.first) + ": both vanish";
   return s;

@@ -52,7 +52,7 @@ nlohmann::json run_scan_job(ScanContext& ctx, const ScanJob& job) {
     const long N = M * K + M;  // ≥ A·K + B for all A ≤ M, B < A
     const IntegerSeries& f = ctx.series(F, N);
     const IntegerSeries& g = ctx.series(G, N);
-    ExactComparison e = compare_pair_exact(f, job.ap, g, job.ap2, K, {2, 3});
+    ExactComparison e = compare_pair_exact(f, job.ap, g, job.ap2, K, {2, 3, 5, 7});
     r["verdict"] = e.whole.relation == Relation::Proportional ? "PROPORTIONAL"
                    : e.whole.relation == Relation::BothVanish ? "BOTH-VANISH"
                                                               : "NOT-PROPORTIONAL";

@@ -2,7 +2,7 @@
 // One job of a scan: c_t(A n + B) against sc_{2t−1}(A2 n + B2).
 //  * t ≥ 6 (weight ≥ 5/2): the verdict of certify_pair (src/progression/certify.hpp).
 //  * t = 4, 5 (weight 3/2, 2) and below: no certificate; exact comparison of the
-//    counts for n ≤ K and on the sub-progressions modulo 2 and 3 (exact_compare.hpp).
+//    counts for n ≤ K and on the sub-progressions modulo 2, 3, 5 and 7 (exact_compare.hpp).
 // The record is a JSON object with deterministic content (no dates), so that
 // shard-and-merge and interrupted-and-resumed scans give identical rows.
 #include <map>

@@ -73,7 +73,8 @@ nlohmann::json scan_summary(const std::vector<nlohmann::json>& rows, ScanContext
     }
     if (v == "PROPORTIONAL") proportional.push_back({{"job", r["job"]}, {"pair", pair}, {"k", r.value("k", "")}});
     if (r.contains("proportional_subclasses") && !r["proportional_subclasses"].empty())
-      sub_proportional.push_back({{"job", r["job"]}, {"pair", pair}, {"classes", r["proportional_subclasses"]}});
+      sub_proportional.push_back({{"job", r["job"]}, {"pair", pair}, {"classes", r["proportional_subclasses"]},
+                                  {"description", r.value("reason", "")}});
   }
   nlohmann::json pt = nlohmann::json::object();
   for (const auto& [t, m] : per_t) pt[std::to_string(t)] = m;
@@ -112,9 +113,7 @@ std::string scan_summary_text(const nlohmann::json& header, const std::string& s
     o << "exact proportionality (t <= 5, every tested n):\n";
     for (const auto& c : s["proportional_pairs"]) o << "  " << c["pair"].get<std::string>() << ": k = " << c["k"].get<std::string>() << "\n";
     for (const auto& c : s["proportional_subprogressions"]) {
-      o << "  " << c["pair"].get<std::string>() << " only on";
-      for (const auto& x : c["classes"]) o << " n=" << x["j"] << " mod " << x["p"] << " (k=" << x["k"].get<std::string>() << ")";
-      o << "\n";
+      o << "  " << c["pair"].get<std::string>() << ": " << c["description"].get<std::string>() << "\n";
     }
   }
   o << "sub-progression skipping: " << s["subprogression_skipping"].get<std::string>() << "\n";
