@@ -41,15 +41,30 @@ TEST_CASE("box bounds dominate the true maxima and are within a square of them",
   }
 }
 
+TEST_CASE("large T: the partition cap keeps the prime count small", "[series][bound]") {
+  // c_1000(n) = p(n) for n < 1000; the box bound would be 19^999.
+  const CoefficientBound b = family_coefficient_bound(Family::parse("c1000"), 100);
+  CHECK(b.method.find("partition") != std::string::npos);
+  CHECK(fmpz_cmp(b.bound.get(), Fmpz(190569292).get()) >= 0);  // p(100) (Hardy–Ramanujan 1918; from memory)
+  CHECK(fmpz_bits(b.bound.get()) <= 40);
+  IntegerSeries s = family_series(Family::parse("c1000"), 100);
+  CHECK(s.value(100) == Fmpz(190569292));
+  CHECK(plan_family_series(Family::parse("sc999"), 200).primes.size() == 1);
+}
+
 TEST_CASE("box bound values by hand", "[series][bound]") {
-  // c_7, n = 0: X = 2, 8X/t = 16/7, ⌊sqrt⌋ = 1, bound 2^6 = 64.
-  CHECK(family_coefficient_bound(Family::parse("c7"), 0).bound == Fmpz(64));
+  // c_7, N = 0: the box gives 2^6 (8X/t = 16/7), the partition cap p(0) = 1 wins.
+  CHECK(family_coefficient_bound(Family::parse("c7"), 0).bound == Fmpz(1));
+  // c_7, N = 10^5: 8X/t = (24N + 48)/21 = 114287.9…, ⌊sqrt⌋ = 338, bound 339^6.
+  Fmpz b339;
+  fmpz_ui_pow_ui(b339.get(), 339, 6);
+  CHECK(family_coefficient_bound(Family::parse("c7"), 100000).bound == b339);
   // c_1: a single coefficient 1, bound (…)^0 = 1.
   CHECK(family_coefficient_bound(Family::parse("c1"), 1000).bound == Fmpz(1));
   // sq3 at N = 100: (2·10 + 1)^3.
   CHECK(family_coefficient_bound(Family::parse("sq3"), 100).bound == Fmpz(9261));
-  // sc7 at N = 0: S = 36 + 16 + 4 = 56, 4X/t = 56/49, ⌊sqrt⌋ = 1, bound 2^3.
-  CHECK(family_coefficient_bound(Family::parse("sc7"), 0).bound == Fmpz(8));
+  // sc7 at N = 1000: S = 36 + 16 + 4 = 56, 4X/t = 28056/49 = 572.5…, ⌊sqrt⌋ = 23, bound 24^3.
+  CHECK(family_coefficient_bound(Family::parse("sc7"), 1000).bound == Fmpz(13824));
 }
 
 TEST_CASE("general majorant bound dominates |coefficients| and tracks E(q)^-A", "[series][bound]") {

@@ -26,6 +26,21 @@ Fmpz box_power(const Fmpz& num, const Fmpz& den, long k) {
 
 }  // namespace
 
+CoefficientBound eta_quotient_coefficient_bound(const EtaQuotient& quotient, long N, slong prec);
+
+namespace {
+// t-cores and self-conjugate t-cores are partitions, so their counts are at most
+// p(n) ≤ p(N) = [q^N] E(q)^{−1}, bounded by the majorant with A = 1. For T large
+// against sqrt(N) this is far smaller than the box bound (e.g. c_1000, N = 100).
+void cap_by_partitions(CoefficientBound& r, long N) {
+  CoefficientBound p = eta_quotient_coefficient_bound({{1, -1}}, N, 64);
+  if (fmpz_cmp(p.bound.get(), r.bound.get()) < 0) {
+    r.bound = p.bound;
+    r.method = "partition bound count(n) <= p(n) <= exp(pi^2/6 x/(1-x)) / x^n";
+  }
+}
+}  // namespace
+
 CoefficientBound family_coefficient_bound(const Family& family, long N) {
   CIRCLET_ASSERT(N >= 0, "coefficient bound for negative N");
   const long t = family.t;
@@ -47,6 +62,7 @@ CoefficientBound family_coefficient_bound(const Family& family, long N) {
       fmpz_add_si(num.get(), num.get(), t * t - 1);
       r.bound = box_power(num, den, t - 1);
       r.method = "box bound c_t(n) <= (floor(2 sqrt(2X/t)) + 1)^(t-1), X = n + (t^2-1)/24";
+      cap_by_partitions(r, N);
       return r;
     }
     case FamilyKind::SelfConjugateCore: {
@@ -63,6 +79,7 @@ CoefficientBound family_coefficient_bound(const Family& family, long N) {
       fmpz_add(num.get(), num.get(), S.get());
       r.bound = box_power(num, den, m);
       r.method = "box bound sc_t(n) <= (floor(2 sqrt(X/t)) + 1)^m, X = n + sum (2i+1-t)^2/(4t)";
+      cap_by_partitions(r, N);
       return r;
     }
     case FamilyKind::SumOfSquares: {

@@ -26,7 +26,8 @@ struct CoefficientBound {
   std::string method;
 };
 
-/// Box bound for c_t, sc_t and r_S, for all n ≤ N (N ≥ 0). See the .cpp for the derivation.
+/// Box bound for c_t, sc_t and r_S, for all n ≤ N (N ≥ 0), capped for c_t and
+/// sc_t by the partition bound p(n) ≤ p(N). See the .cpp for the derivations.
 CoefficientBound family_coefficient_bound(const Family& family, long N);
 
 /// General bound for an eta quotient Π_d Π_k (1 − q^{dk})^{e_d}, all n ≤ N:
