@@ -1,0 +1,184 @@
+// `circlet ratio F G --ap A,B --ap2 A2,B2 --to K [--json] [-o FILE]`: for n = 0..K
+// the exact counts F(A n+B) and G(A2 n+B2), their exact ratio, the ratio of
+// main terms M_F/M_G as a ball, and the parts of the limiting constant
+// (MATH.md §7): the σ_∞ constant sqrt(det S_G/det S_F), the power factor
+// (X_F/X_G)^{w−1} → (A/A2)^{w−1}, and the local ratio factors ρ_p(n) for p ≤ 7.
+// A summary follows (on stderr for CSV): which ρ_p vary, the range of the
+// ratio, and the verdict of `circlet certify`.
+#include <cmath>
+#include <cstdio>
+#include <iostream>
+#include <memory>
+#include <set>
+
+#include "cli/command.hpp"
+#include "core/atomic_file.hpp"
+#include "core/error.hpp"
+#include "core/provenance.hpp"
+#include "mainterm/main_term.hpp"
+#include "progression/ball_io.hpp"
+#include "progression/certify.hpp"
+#include "progression/interval.hpp"
+#include "quadratic/local_density.hpp"
+#include "series/eta_series.hpp"
+
+namespace circlet::cli {
+
+namespace {
+
+struct RatioCliOptions {
+  std::string F, G, ap, ap2, to, prec = "128", output;
+  bool json = false;
+};
+
+constexpr ulong kShownPrimes[] = {2, 3, 5, 7};
+
+void run_ratio(const RatioCliOptions& o) {
+  const Family f = Family::parse(o.F), g = Family::parse(o.G);
+  const Progression ap = o.ap.empty() ? Progression{} : Progression::parse(o.ap);
+  const Progression ap2 = o.ap2.empty() ? Progression{} : Progression::parse(o.ap2);
+  if (o.to.empty()) throw UserError("--to K is required (rows n = 0..K)");
+  const long K = parse_nonnegative("--to", o.to, 1000000);
+  const slong prec = parse_nonnegative("--prec", o.prec, 100000);
+  if (prec < 32) throw UserError("--prec must be at least 32 bits");
+  ProgressionPair pair(f, ap, g, ap2);  // UserError when the weights differ
+  const long NF = ap.at(K), NG = ap2.at(K);
+  if (NF > (1L << 24) || NG > (1L << 24)) throw UserError("A*K+B must stay below 2^24 for the exact series");
+  std::unique_ptr<AtomicFile> file;
+  if (!o.output.empty()) file = std::make_unique<AtomicFile>(o.output);
+  IntegerSeries sf = family_series(f, NF), sg = family_series(g, NG);
+
+  Certificate limit_parts;
+  limit_parts.rank = pair.rank();
+  sigma_and_power(limit_parts, pair, 0, prec);
+  const bool has_main = pair.rank() >= 2;
+
+  std::vector<nlohmann::json> rows;
+  std::string csv = "n,F_arg,G_arg,F_count,G_count,ratio,ratio_decimal,main_term_ratio,power_factor,rho_2,rho_3,rho_5,rho_7\n";
+  std::map<ulong, std::set<std::string>> rho_values;
+  double lo = INFINITY, hi = -INFINITY;
+  long zero_g = 0;
+  for (long n = 0; n <= K; ++n) {
+    const Fmpz nz(n), a = Fmpz(ap.at(n)), b = Fmpz(ap2.at(n));
+    const fmpz* cf = sf.at(ap.at(n));
+    const fmpz* cg = sg.at(ap2.at(n));
+    std::string ratio = "undefined", ratio_dec = "";
+    if (!fmpz_is_zero(cg)) {
+      Fmpq q;
+      fmpq_set_fmpz_frac(q, cf, cg);
+      ratio = q.str();
+      double d = fmpq_get_d(q);  // display only
+      lo = std::min(lo, d);
+      hi = std::max(hi, d);
+      char buf[32];
+      std::snprintf(buf, sizeof buf, "%.8g", d);
+      ratio_dec = buf;
+    } else {
+      ++zero_g;
+    }
+    std::string main_ratio = "n/a";
+    if (has_main) {
+      MainTermOptions mo;
+      mo.with_parts = false;
+      MainTerm mf = main_term(pair.F, a, prec, mo), mg = main_term(pair.G, b, prec, mo);
+      Arb r;
+      arb_div(r, mf.ball, mg.ball, prec);
+      main_ratio = (mf.exact && mg.exact && !mg.exact->is_zero())
+                       ? [&] { Fmpq q; fmpq_div(q, *mf.exact, *mg.exact); return q.str(); }()
+                       : r.str(15);
+    }
+    Fmpq y;
+    fmpq_div(y, pair.xF.at(nz), pair.xG.at(nz));
+    Arb pw;
+    weight_power(pw, y, pair.rank() >= 2 ? pair.rank() : 2, prec);
+    std::string rho[4];
+    for (int i = 0; i < 4; ++i) {
+      ulong p = kShownPrimes[i];
+      Fmpq bf = local_density(pair.F, a, p), bg = local_density(pair.G, b, p);
+      if (bg.is_zero()) {
+        rho[i] = "undefined";
+      } else {
+        Fmpq q;
+        fmpq_div(q, bf, bg);
+        rho[i] = q.str();
+      }
+      rho_values[p].insert(rho[i]);
+    }
+    csv += std::to_string(n) + "," + a.str() + "," + b.str() + "," + Fmpz(sf.value(ap.at(n))).str() + "," +
+           Fmpz(sg.value(ap2.at(n))).str() + "," + ratio + "," + ratio_dec + ",\"" + main_ratio + "\",\"" + pw.str(10) +
+           "\"," + rho[0] + "," + rho[1] + "," + rho[2] + "," + rho[3] + "\n";
+    if (o.json)
+      rows.push_back({{"n", n}, {"F_arg", a.str()}, {"G_arg", b.str()}, {"F_count", sf.value(ap.at(n)).str()},
+                      {"G_count", sg.value(ap2.at(n)).str()}, {"ratio", ratio}, {"main_term_ratio", main_ratio},
+                      {"power_factor", pw.str(10)}, {"rho", {{"2", rho[0]}, {"3", rho[1]}, {"5", rho[2]}, {"7", rho[3]}}}});
+  }
+
+  CertifyOptions copt;
+  copt.prec = prec;
+  Certificate cert = certify_pair(pair, copt);
+  nlohmann::json summary;
+  std::vector<std::string> varying;
+  for (const auto& [p, vals] : rho_values)
+    if (vals.size() > 1) varying.push_back(std::to_string(p));
+  summary["rho_varies_at"] = varying;
+  summary["ratio_range_display"] = zero_g > K ? std::string("none (G vanishes on every row)")
+                                              : "[" + std::to_string(lo) + ", " + std::to_string(hi) + "]";
+  summary["rows_with_G_zero"] = zero_g;
+  summary["sigma_constant_square"] = limit_parts.sigma_square.str();
+  summary["sigma_constant"] = limit_parts.sigma.str(15);
+  summary["power_factor_limit"] = limit_parts.power_limit.str(15);
+  summary["verdict"] = verdict_name(cert.verdict);
+  summary["verdict_reason"] = cert.reason;
+  if (cert.verdict == Verdict::NonConvergent) {
+    summary["classes"] = {{{"residue", cert.classes[0].residue.str()}, {"modulus", cert.modulus.str()},
+                           {"limit_interval", interval_display(cert.classes[0].limit)}},
+                          {{"residue", cert.classes[1].residue.str()}, {"modulus", cert.modulus.str()},
+                           {"limit_interval", interval_display(cert.classes[1].limit)}}};
+  }
+  const Provenance prov = Provenance::now(command_line(), prec);
+  std::string text;
+  if (o.json) {
+    nlohmann::json j{{"provenance", prov.to_json()}, {"F", f.name()}, {"G", g.name()}, {"ap", ap.str()},
+                     {"ap2", ap2.str()}, {"weight", pair.weight_str()}, {"rows", rows}, {"summary", summary}};
+    text = j.dump(1) + "\n";
+  } else {
+    text = (file ? prov.csv_comment() : std::string()) + csv;
+  }
+  if (file) {
+    file->stream() << text;
+    file->commit();
+  } else {
+    std::cout << text;
+  }
+  if (!o.json) {
+    std::cerr << "summary: rho_p varies at p in {";
+    for (size_t i = 0; i < varying.size(); ++i) std::cerr << (i ? "," : "") << varying[i];
+    std::cerr << "} (p <= 7 shown); exact ratio range " << summary["ratio_range_display"].get<std::string>()
+              << "; sigma constant sqrt(" << limit_parts.sigma_square.str() << ") = " << limit_parts.sigma.str(10)
+              << "; (A/A2)^{w-1} = " << limit_parts.power_limit.str(10) << "\nverdict: " << verdict_name(cert.verdict)
+              << " -- " << cert.reason << "\n";
+    if (cert.verdict == Verdict::NonConvergent)
+      std::cerr << "  n = " << cert.classes[0].residue.str() << " mod " << cert.modulus.str() << ": limit in "
+                << interval_display(cert.classes[0].limit) << "; n = " << cert.classes[1].residue.str() << " mod "
+                << cert.modulus.str() << ": limit in " << interval_display(cert.classes[1].limit) << "\n";
+  }
+}
+
+const Registration registration{CommandSpec{
+    "ratio", 59, [](CLI::App& app) {
+      auto o = std::make_shared<RatioCliOptions>();
+      auto* cmd = app.add_subcommand("ratio", "F(A n+B) / G(A2 n+B2): exact counts, main-term ratio, local factors, verdict");
+      cmd->add_option("F", o->F, "first family, e.g. c6")->required();
+      cmd->add_option("G", o->G, "second family of the same weight, e.g. sc11")->required();
+      cmd->add_option("--ap", o->ap, "progression A,B of F (default 1,0)");
+      cmd->add_option("--ap2", o->ap2, "progression A2,B2 of G (default 1,0)");
+      cmd->add_option("--to", o->to, "rows n = 0..K")->required();
+      cmd->add_option("--prec", o->prec, "precision in bits (default 128)");
+      cmd->add_flag("--json", o->json, "JSON output (rows and summary) instead of CSV");
+      cmd->add_option("-o,--output", o->output, "write to FILE (atomically) instead of standard output");
+      cmd->callback([o]() { run_ratio(*o); });
+    }}};
+
+}  // namespace
+
+}  // namespace circlet::cli
