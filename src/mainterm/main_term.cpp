@@ -159,7 +159,7 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
   Fmpz f;
   fmpz_abs(f.get(), P.discriminant.get());
   const bool exact_route = even || fmpz_cmp_ui(f.get(), options.max_exact_conductor) <= 0;
-  const bool need_balls = options.with_parts || !exact_route;
+  const bool need_balls = options.with_parts || (!exact_route && !options.skip_l_value);
   if (need_balls) singular_integral(P.sigma_inf.get(), r, model.det_gram, P.X, prec);
 
   if (exact_route) {
@@ -197,6 +197,18 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
   }
 
   // Ball route (odd rank, large conductor): σ_∞ · L(k, χ)/ζ(2k) · C.
+  if (C.is_zero()) {
+    // A local obstruction: M(n) = 0 exactly, whatever the L-value.
+    out.exact = Fmpq(0);
+    arb_zero(out.ball.get());
+    P.L_route = "not needed: a special prime has β_p = 0";
+    return out;
+  }
+  if (options.skip_l_value) {
+    arb_indeterminate(out.ball.get());
+    P.L_route = "skipped";
+    return out;
+  }
   if (s >= 2) {
     ulong Pmax = dirichlet_l_euler_bound(s, prec, options.max_euler_prime);
     dirichlet_l_euler(P.L_value.get(), P.discriminant, s, Pmax, prec);
@@ -204,12 +216,6 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
   } else {
     arb_indeterminate(P.L_value.get());
     P.L_route = "unavailable: L(1, χ) with conductor " + f.str() + " above the exact-route limit";
-  }
-  if (C.is_zero()) {
-    // A local obstruction: M(n) = 0 exactly, whatever the L-value.
-    out.exact = Fmpq(0);
-    arb_zero(out.ball.get());
-    return out;
   }
   Arb z;
   arb_zeta_ui(z, 2 * s, prec + 10);

@@ -66,6 +66,9 @@ struct MainTermOptions {
   ulong max_euler_prime = 10000000;
   /// Compute σ_∞ and the L-value balls even on the exact path (for --explain).
   bool with_parts = true;
+  /// Ball route only: stop before the L-value (parts without L_value and, unless
+  /// with_parts, without σ_∞; ball indeterminate). Used by main_term_batch, which computes the L-values together.
+  bool skip_l_value = false;
 };
 
 /// Throws UserError when the family's rank is below 2 (no main term of this
