@@ -3,6 +3,7 @@
 
 #include <flint/fmpq.h>
 
+#include <algorithm>
 #include <catch2/catch.hpp>
 
 #include "mainterm/main_term.hpp"
@@ -122,4 +123,18 @@ TEST_CASE("arc_expansion rejects K = 0 and X <= 0 with a clear message", "[arcs]
   const auto model = quadratic_model(Family::parse("c5"));
   CHECK_THROWS_WITH(arc_expansion(model, Fmpz(5), 0, 64), "--upto must be at least 1");
   CHECK_THROWS_WITH(arc_expansion(model, Fmpz(-5), 3, 64), Catch::Contains("is not positive"));
+}
+
+TEST_CASE("a prime factor of X beyond the cut-off is taken exactly", "[arcs][terms][tail]") {
+  // c_9: X = n + 10/3 = (3n + 10)/3; n = 333331 gives the prime 1000003 > P₀ = 10^5.
+  const auto model = quadratic_model(Family::parse("c9"));
+  const Fmpz n(333331);
+  const auto coeffs = arc_coefficients(model, n, 100);
+  std::vector<Fmpq> first(coeffs.begin(), coeffs.begin() + 25);
+  ArcTailBound T = arc_tail_bound(model, n, first, 128);
+  CHECK(T.prime_cutoff == 100000);
+  CHECK(std::find(T.special_primes.begin(), T.special_primes.end(), 1000003UL) != T.special_primes.end());
+  Arb actual;
+  arb_set_fmpq(actual.get(), abs_tail(coeffs, 25, 100).get(), 128);
+  CHECK(arb_le(actual.get(), T.coefficient_tail.get()));
 }

@@ -141,3 +141,21 @@ TEST_CASE("the exact value is recovered only from a ball that pins it", "[arcs][
   CHECK_FALSE(arc_coefficient_exact_from_ball(z, 2, 3, 64).has_value());
   acb_clear(z);
 }
+
+TEST_CASE("route (b) balls at two precisions overlap and pin the same rational", "[arcs][gauss]") {
+  for (const char* f : {"c7", "sc9", "sq5"}) {
+    const auto model = test_model(f);
+    for (ulong k : {30UL, 97UL, 128UL}) {
+      auto lo = arc_coefficient_by_gauss_sums(model, Fmpz(1234), k, 64);
+      auto hi = arc_coefficient_by_gauss_sums(model, Fmpz(1234), k, 256);
+      INFO(f << " k=" << k);
+      CHECK(arb_overlaps(lo.re.get(), hi.re.get()));
+      CHECK(arb_contains_zero(hi.im.get()));
+      REQUIRE(hi.exact.has_value());
+      if (lo.exact) CHECK(*lo.exact == *hi.exact);
+      // The accuracy floor: 256 bits leave at least 200 bits after k^r terms.
+      const bool accurate = mag_cmp_2exp_si(arb_radref(hi.re.get()), -180) < 0;
+      CHECK(accurate);
+    }
+  }
+}
