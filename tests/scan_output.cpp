@@ -101,3 +101,14 @@ TEST_CASE("a scan killed mid-way and resumed equals an uninterrupted one", "[sca
   // A checkpoint of another scan is refused on --resume.
   CHECK(run("scan --t 6..12 --modulus 5 --resume -o " + dir) == 2);
 }
+
+// Every certificate behind a scan's verdicts passes the independent re-check
+// (counting mod p^j, other precision). This caught a too-small ball margin once.
+TEST_CASE("scan --verify re-checks every certificate and all pass", "[scan][verify]") {
+  TempDir tmp;
+  REQUIRE(run("scan --t 6..9 --modulus 3 --verify -o " + tmp.path + "/v") == 0);
+  nlohmann::json s = nlohmann::json::parse(slurp(tmp.path + "/v/scan.json"))["summary"];
+  CHECK(s["jobs"] == 144);
+  CHECK(s["certificates_verified"] == 144);
+  CHECK(s["certificates_failing_verification"] == 0);
+}

@@ -20,7 +20,7 @@ namespace {
 
 struct ScanCliOptions {
   std::string t = "6..12", modulus, shard = "0/1", output, compare_to = "1000", qmax = "47", prec = "128";
-  bool resume = false;
+  bool resume = false, verify = false;
 };
 
 void run_scan(const ScanCliOptions& o) {
@@ -34,6 +34,7 @@ void run_scan(const ScanCliOptions& o) {
   if (s.certify.Q_max < 3) throw UserError("--qmax must be at least 3");
   s.certify.prec = parse_nonnegative("--prec", o.prec, 100000);
   if (s.certify.prec < 64) throw UserError("--prec must be at least 64 bits");
+  s.verify = o.verify;
   ShardSpec shard = ShardSpec::parse(o.shard);
   if (o.output.empty()) throw UserError("-o DIR is required (the checkpoint and results go there)");
   struct stat st;
@@ -91,6 +92,7 @@ const Registration scan_registration{CommandSpec{
       cmd->add_option("--t", o->t, "range of t, e.g. 6..12 (t <= 5: exact comparisons instead of certificates)");
       cmd->add_option("--modulus", o->modulus, "largest A and A2")->required();
       cmd->add_option("--shard", o->shard, "i/k: only jobs with index = i mod k (default 0/1)");
+      cmd->add_flag("--verify", o->verify, "re-check every certificate independently (counting mod p^j, other precision)");
       cmd->add_flag("--resume", o->resume, "continue the scan recorded in DIR/checkpoint.jsonl");
       cmd->add_option("--compare-to", o->compare_to, "t <= 5: compare exact counts for n = 0..K (default 1000)");
       cmd->add_option("--qmax", o->qmax, "largest prime pinned by certificates (default 47)");

@@ -14,12 +14,12 @@ nlohmann::json ball_to_json(const arb_t x);
 /// Throws UserError naming `what` when the object is malformed.
 void ball_from_json(arb_t res, const nlohmann::json& j, const std::string& what);
 
-/// Enlarges x by a relative 2^{-bits} of its magnitude (plus 2^{-bits} absolute):
+/// Enlarges x by 2^{-bits}(|x| + 1) plus 2^{-26} of its radius:
 /// applied to every ball a certificate stores, so that an independent
 /// recomputation at another precision lands inside it.
 void ball_add_margin(arb_t x, slong bits);
 
-/// Is `inner` contained in `outer`, and is rad(outer) ≤ rad(inner)(1 + 2^{-24}) +
+/// Is `inner` contained in `outer`, and is rad(outer) ≤ rad(inner)(1 + 2^{-20}) +
 /// 2^{-slack_bits}(|inner| + 1)? (A stored interval must be both correct and tight.)
 bool ball_contains_tightly(const arb_t outer, const arb_t inner, slong slack_bits);
 

@@ -2,6 +2,9 @@
 
 #include <flint/ulong_extras.h>
 
+#include <map>
+#include <tuple>
+
 #include "circlet/version.hpp"
 #include "core/error.hpp"
 #include "progression/ball_io.hpp"
@@ -106,8 +109,19 @@ void verify_nonconvergent(Ctx& ctx, const nlohmann::json& j, const ProgressionPa
     return;
   }
   Arb S, T;
-  tail_log_bound(S, rank, Q, q2, prec);
-  tail_interval(T, rank, Q, q2, prec);
+  {
+    // Shared between the certificates of one process (a scan with --verify).
+    static std::map<std::tuple<int, ulong, ulong, slong>, std::pair<Arb, Arb>> cache;
+    auto key = std::make_tuple(rank, Q, q2, prec);
+    auto it = cache.find(key);
+    if (it == cache.end()) {
+      tail_log_bound(S, rank, Q, q2, prec);
+      tail_interval(T, rank, Q, q2, prec);
+      it = cache.emplace(key, std::make_pair(S, T)).first;
+    }
+    S = it->second.first;
+    T = it->second.second;
+  }
   check_ball(ctx, j.at("tail").at("log_bound"), S, "tail.log_bound");
   check_ball(ctx, j.at("tail").at("interval"), T, "tail.interval");
 

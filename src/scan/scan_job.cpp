@@ -2,6 +2,7 @@
 
 #include "progression/ball_io.hpp"
 #include "progression/certificate.hpp"
+#include "progression/verify.hpp"
 #include "scan/exact_compare.hpp"
 #include "series/eta_series.hpp"
 
@@ -14,7 +15,8 @@ nlohmann::json ScanSettings::header() const {
           {"modulus", spec.M},
           {"compare_K", compare_K},
           {"Q_max", certify.Q_max},
-          {"prec", certify.prec}};
+          {"prec", certify.prec},
+          {"verify", verify}};
 }
 
 const IntegerSeries& ScanContext::series(const Family& f, long N) {
@@ -34,6 +36,11 @@ nlohmann::json run_scan_job(ScanContext& ctx, const ScanJob& job) {
     Certificate c = certify_pair(pair, ctx.settings().certify);
     r["verdict"] = verdict_name(c.verdict);
     r["reason"] = c.reason;
+    if (ctx.settings().verify) {
+      VerifyReport v = verify_certificate(certificate_to_json(c));
+      r["verified"] = v.ok();
+      if (!v.ok()) r["verify_failure"] = v.failures.front();
+    }
     if (c.verdict == Verdict::NonConvergent) {
       r["Q"] = c.Q;
       r["prime"] = c.distinguishing_prime;

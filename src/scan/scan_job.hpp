@@ -19,6 +19,7 @@ struct ScanSettings {
   ScanSpec spec;
   long compare_K = 1000;    // exact comparisons for t ≤ 5: n = 0..K
   CertifyOptions certify;   // for t ≥ 6
+  bool verify = false;      // re-check every certificate with verify_certificate (independent route)
   nlohmann::json header() const;  // the checkpoint header
 };
 

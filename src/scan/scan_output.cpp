@@ -26,7 +26,7 @@ std::string csv_field(const nlohmann::json& r, const char* key) {
   return s;
 }
 const char* kColumns[] = {"job", "t", "F", "G", "A", "B", "A2", "B2", "verdict", "Q", "prime", "modulus",
-                          "r1", "r2", "limit1", "limit2", "k", "reason"};
+                          "r1", "r2", "limit1", "limit2", "k", "verified", "reason"};
 
 void ensure_dir(const std::string& dir) {
   struct stat st;
@@ -76,9 +76,14 @@ nlohmann::json scan_summary(const std::vector<nlohmann::json>& rows, ScanContext
       sub_proportional.push_back({{"job", r["job"]}, {"pair", pair}, {"classes", r["proportional_subclasses"]},
                                   {"description", r.value("reason", "")}});
   }
-  nlohmann::json pt = nlohmann::json::object();
-  for (const auto& [t, m] : per_t) pt[std::to_string(t)] = m;
+  nlohmann::json pt = nlohmann::json::array();
+  long verified = 0, verify_failed = 0;
+  for (const auto& r : rows)
+    if (r.contains("verified")) (r["verified"] == true ? verified : verify_failed)++;
+  for (const auto& [t, m] : per_t) pt.push_back({{"t", t}, {"verdicts", m}});
   return {{"jobs", rows.size()},
+          {"certificates_verified", verified},
+          {"certificates_failing_verification", verify_failed},
           {"verdicts", total},
           {"per_t", pt},
           {"candidates", candidates},
@@ -96,11 +101,14 @@ std::string scan_summary_text(const nlohmann::json& header, const std::string& s
   o << "jobs: " << s["jobs"] << "\n";
   for (const auto& [v, n] : s["verdicts"].items()) o << "  " << v << ": " << n << "\n";
   o << "per t:\n";
-  for (const auto& [t, m] : s["per_t"].items()) {
-    o << "  t = " << t << ":";
-    for (const auto& [v, n] : m.items()) o << " " << v << " " << n;
+  for (const auto& e : s["per_t"]) {
+    o << "  t = " << e["t"] << ":";
+    for (const auto& [v, n] : e["verdicts"].items()) o << " " << v << " " << n;
     o << "\n";
   }
+  if (s["certificates_verified"].get<long>() + s["certificates_failing_verification"].get<long>() > 0)
+    o << "certificates re-checked by circlet verify's route: " << s["certificates_verified"] << " verified, "
+      << s["certificates_failing_verification"] << " FAILED\n";
   if (s["candidates"].empty()) {
     o << "CANDIDATES (CONSTANT with an integer in the interval): none\n";
   } else {
