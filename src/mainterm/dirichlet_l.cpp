@@ -7,6 +7,7 @@
 #include <flint/fmpz_factor.h>
 #include <flint/ulong_extras.h>
 
+#include <algorithm>
 #include <cmath>
 #include <vector>
 
@@ -216,12 +217,21 @@ void dirichlet_l_euler_tail(arb_t eps, ulong k, ulong P, slong prec) {
 
 ulong dirichlet_l_euler_bound(ulong k, slong prec, ulong max_P) {
   CIRCLET_ASSERT(k >= 2, "dirichlet_l_euler_bound: need k ≥ 2");
-  // Choose P with P^{1−k} ≈ 2^{−prec}; a double only chooses the truncation point.
-  double lp = (double)prec / (double)(k - 1);
-  double P = lp > 62 ? 1e19 : std::ldexp(1.0, (int)std::ceil(lp));
-  if (P > (double)max_P) P = (double)max_P;
-  if (P < 100) P = 100;
-  return (ulong)P;
+  // Smallest P (to a factor 1 + 2^{−40}) with the double estimate of
+  // ε(P, k) = 1.25506 k P^{1−k}/((k−1) log P (1 − P^{−k})) below 2^{−prec}.
+  // A double only chooses the truncation point; the bound itself is a ball.
+  auto eps = [k](double P) {
+    return 1.25506 * k * std::pow(P, 1.0 - k) / ((k - 1) * std::log(P) * (1 - std::pow(P, -(double)k)));
+  };
+  const double target = std::ldexp(1.0, -(int)std::min<slong>(prec, 1000));
+  double lo = 100, hi = 100;
+  while (eps(hi) > target && hi < (double)max_P) hi *= 2;
+  if (hi >= (double)max_P) return max_P;
+  for (int it = 0; it < 60 && hi - lo > 1; ++it) {
+    const double mid = 0.5 * (lo + hi);
+    (eps(mid) > target ? lo : hi) = mid;
+  }
+  return (ulong)std::ceil(hi);
 }
 
 void dirichlet_l_euler(arb_t res, const Fmpz& d, ulong k, ulong P, slong prec) {

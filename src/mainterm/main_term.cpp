@@ -210,7 +210,8 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
     return out;
   }
   if (s >= 2) {
-    ulong Pmax = dirichlet_l_euler_bound(s, prec, options.max_euler_prime);
+    // Tail below 2^{−(prec−18)}: main_term_certified works 20 bits above its target.
+    ulong Pmax = dirichlet_l_euler_bound(s, std::max<slong>(prec - 18, 8), options.max_euler_prime);
     dirichlet_l_euler(P.L_value.get(), P.discriminant, s, Pmax, prec);
     P.L_route = "ball: Euler product over p ≤ " + std::to_string(Pmax) + " with rigorous tail bound";
   } else {
