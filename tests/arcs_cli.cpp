@@ -114,3 +114,16 @@ TEST_CASE("remainder refuses bad input with one clear line", "[cli][remainder][e
   CHECK(b.status == 2);
   CHECK(b.err == "circlet: error: family sc3 has rank 1: no main term\n");
 }
+
+TEST_CASE("arcs --gauss adds the route (b) coefficient and checks it", "[cli][arcs]") {
+  Run r = run("arcs c7 --at 98 --upto 6 --gauss");
+  REQUIRE(r.status == 0);
+  auto l = split_lines(r.out);
+  REQUIRE(l.size() == 7);
+  CHECK(l[0] == "k,coefficient,term,partial_sum,tail_bound,enclosure,main_term,coefficient_gauss");
+  CHECK(l[2].rfind("2,1/8,", 0) == 0);
+  CHECK(l[2].find(",0.125000000000000") != string::npos);
+  Run big = run("arcs c7 --at 98 --upto 301 --gauss");
+  CHECK(big.status == 2);
+  CHECK(big.err == "circlet: error: --gauss is limited to --upto 300 (cost grows like K^3)\n");
+}

@@ -10,6 +10,7 @@
 #include <nlohmann/json.hpp>
 
 #include "arcs/arc_terms.hpp"
+#include "arcs/gauss_sum.hpp"
 #include "cli/command.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
@@ -29,8 +30,11 @@ struct ArcsOptions {
   long prec = 128;
   long digits = 15;
   bool json = false;
+  bool gauss = false;
   std::string output;
 };
+
+constexpr long kMaxGaussUpto = 300;
 
 constexpr long kMaxUpto = 100000;
 
@@ -65,11 +69,24 @@ void run_arcs(const ArcsOptions& opt) {
                                       ": no circle-method main term");
   check_main_term_input(model, n);
 
+  if (opt.gauss && K > kMaxGaussUpto)
+    throw UserError("--gauss is limited to --upto " + std::to_string(kMaxGaussUpto) + " (cost grows like K^3)");
+
   std::unique_ptr<AtomicFile> file;
   if (!opt.output.empty()) file = std::make_unique<AtomicFile>(opt.output);
 
   const slong prec = opt.prec;
   const ArcExpansion e = arc_expansion(model, n, static_cast<ulong>(K), prec);
+  // Route (b): the Gauss-sum form of each coefficient, which must pin the same rational.
+  std::vector<std::string> gauss_text;
+  if (opt.gauss) {
+    for (const auto& t : e.terms) {
+      GaussArcCoefficient g = arc_coefficient_by_gauss_sums(model, n, t.k, prec);
+      if (!g.exact || *g.exact != t.coefficient)
+        throw InternalError("route (b) disagrees with route (a) at k = " + std::to_string(t.k));
+      gauss_text.push_back(ball_text(g.re, opt.digits));
+    }
+  }
   const MainTerm M = main_term(model, n, prec);
   const bool contained = arb_overlaps(e.enclosure.get(), M.ball.get());
   const slong dg = opt.digits;
@@ -93,6 +110,8 @@ void run_arcs(const ArcsOptions& opt) {
                       {"partial_sum", ball_text(t.partial_sum, dg)},
                       {"tail_bound", bound_text(t.tail_bound, dg)},
                       {"enclosure", enclosure_text(t, dg)}});
+    if (opt.gauss)
+      for (size_t i = 0; i < rows.size(); ++i) rows[i]["coefficient_gauss"] = gauss_text[i];
     j["terms"] = rows;
     j["tail"] = {{"bound", bound_text(e.term_tail, dg)},
                  {"coefficient_bound", bound_text(e.tail.coefficient_tail, dg)},
@@ -109,10 +128,15 @@ void run_arcs(const ArcsOptions& opt) {
     // Every row carries the enclosure after k terms and the main term, so that
     // convergence can be plotted from the CSV alone.
     const std::string main_text = ball_text(M.ball, dg);
-    out << "k,coefficient,term,partial_sum,tail_bound,enclosure,main_term\n";
-    for (const auto& t : e.terms)
+    out << "k,coefficient,term,partial_sum,tail_bound,enclosure,main_term" << (opt.gauss ? ",coefficient_gauss" : "")
+        << "\n";
+    for (size_t i = 0; i < e.terms.size(); ++i) {
+      const ArcTerm& t = e.terms[i];
       out << t.k << "," << t.coefficient.str() << "," << ball_text(t.term, dg) << "," << ball_text(t.partial_sum, dg) << ","
-          << bound_text(t.tail_bound, dg) << "," << enclosure_text(t, dg) << "," << main_text << "\n";
+          << bound_text(t.tail_bound, dg) << "," << enclosure_text(t, dg) << "," << main_text;
+      if (opt.gauss) out << "," << gauss_text[i];
+      out << "\n";
+    }
   }
   if (file) {
     file->commit();
@@ -134,6 +158,8 @@ const Registration registration{CommandSpec{
       cmd->add_option("--upto", opt->upto, "largest denominator K (default 20)");
       cmd->add_option("--prec", opt->prec, "working precision in bits (default 128)");
       cmd->add_option("--digits", opt->digits, "decimal digits of printed balls (default 15)");
+      cmd->add_flag("--gauss", opt->gauss,
+                    "also compute each A_k(n)/k^w from Gauss sums (route b) and check it (K <= 300)");
       cmd->add_flag("--json", opt->json, "JSON output with provenance instead of CSV");
       cmd->add_option("-o,--output", opt->output, "write to FILE (atomically) instead of standard output");
       cmd->callback([opt]() { run_arcs(*opt); });
