@@ -58,7 +58,7 @@ TEST_CASE("each kind of tampering is rejected, naming what failed", "[progressio
          j["classes"][1]["limit_interval"]["rad"] = "1*2^10";
        }, "class 2 limit_interval: stored"},
       {"the tail bound", [](nlohmann::json& j) { j["tail"]["log_bound"]["mid"] = "1*2^-20"; }, "tail.log_bound: stored"},
-      {"the verdict", [](nlohmann::json& j) { j["verdict"] = "CONSTANT"; }, "verdict CONSTANT is certified only"},
+      {"the verdict", [](nlohmann::json& j) { j["verdict"] = "CONSTANT"; }, "verdict CONSTANT: the sequences are not identical"},
       {"the verdict to UNDECIDED", [](nlohmann::json& j) { j["verdict"] = "UNDECIDED"; },
        "verdict UNDECIDED disagrees with the recomputed verdict NON-CONVERGENT"},
       {"the version", [](nlohmann::json& j) { j["provenance"]["version"] = "0.0.1"; },

@@ -116,7 +116,28 @@ nlohmann::json certificate_to_json(const Certificate& c) {
     j["classes"] = {class_to_json(c.classes.at(0)), class_to_json(c.classes.at(1))};
     j["disjoint"] = c.disjoint;
   } else if (c.verdict == Verdict::Constant) {
+    nlohmann::json fin = nlohmann::json::array();
+    for (const auto& [p, rho] : c.finite_rho) {
+      nlohmann::json cls = nlohmann::json::array();
+      for (const auto& f : c.finite_classes)
+        if (f.p == p)
+          cls.push_back({{"e", f.e}, {"residue", f.residue.str()}, {"beta_F", f.betaF.str()}, {"beta_G", f.betaG.str()}});
+      fin.push_back({{"p", p}, {"rho", rho.str()}, {"classes", cls}});
+    }
+    j["constant_route"] = c.constant_route;
+    if (c.constant_route == "proportional") {
+      j["lambda"] = c.lambda.str();
+      j["discriminant_product"] = c.discriminant_product.str();
+      j["finite_primes"] = fin;
+      j["constant_argument"] =
+          "X_G(n) = lambda X_F(n) for all n, and discriminant_product is a rational square, so for every prime p "
+          "outside finite_primes both local densities are the same function of (v_p(X), quadratic character of "
+          "the unit part) and rho_p = 1; at each p in finite_primes the listed classes partition Z, each is pinned, "
+          "and all give the same rho_p. Hence M_F/M_G = sqrt(square) for every n, (X_F/X_G)^{w-1} = (A/A')^{w-1} "
+          "exactly.";
+    }
     j["constant"] = {{"square", c.constant_square.str()},
+                     {"value", c.constant_value.str()},
                      {"interval", ball_to_json(c.constant)},
                      {"contains_integer", c.contains_integer},
                      {"integer", c.contains_integer ? nlohmann::json(c.integer.str()) : nlohmann::json(nullptr)}};

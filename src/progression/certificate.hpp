@@ -61,7 +61,13 @@ struct Certificate {
   bool disjoint = false;
 
   // CONSTANT data
+  std::string constant_route;  // "identical" or "proportional" (see certify.hpp)
+  Fmpq lambda;             // X_G(n) = λ·X_F(n) for every n
+  Fmpq discriminant_product;  // det S_F · det S_G (· λ for odd rank): a rational square
+  std::vector<ClassFactor> finite_classes;  // per prime of the finite set: a partition of Z into pinned classes
+  std::vector<std::pair<ulong, Fmpq>> finite_rho;  // (p, ρ_p), the common value on those classes
   Fmpq constant_square;    // the square of the constant, exact
+  Fmpq constant_value;     // the constant itself when it is rational (always, on both routes)
   Arb constant;
   bool contains_integer = false;
   Fmpz integer;

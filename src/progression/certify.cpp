@@ -1,7 +1,9 @@
 #include "progression/certify.hpp"
 
+#include <flint/fmpz_factor.h>
 #include <flint/ulong_extras.h>
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 #include <mutex>
@@ -86,7 +88,56 @@ void crt_combine(Fmpz& res, Fmpz& mod, const Fmpz& r, const Fmpz& m) {
   fmpz_mul(mod, mod, m);
 }
 
+void add_prime_factors(std::vector<ulong>& ps, const fmpz_t n) {
+  if (fmpz_is_zero(n)) return;
+  fmpz_factor_t f;
+  fmpz_factor_init(f);
+  fmpz_factor(f, n);
+  for (slong i = 0; i < f->num; ++i) ps.push_back(fmpz_get_ui(f->p + i));
+  fmpz_factor_clear(f);
+}
+
 }  // namespace
+
+bool x_proportional(const ProgressionPair& pair, Fmpq* lambda) {
+  // X_F = A n + b_F, X_G = A' n + b_G proportional  <=>  A'·b_F = A·b_G; then λ = A'/A.
+  Fmpq l, r;
+  fmpq_mul_fmpz(l, pair.xF.b, pair.xG.a);
+  fmpq_mul_fmpz(r, pair.xG.b, pair.xF.a);
+  if (l != r) return false;
+  fmpq_set_fmpz_frac(*lambda, pair.xG.a, pair.xF.a);
+  return true;
+}
+
+Fmpq discriminant_product(const ProgressionPair& pair, const Fmpq& lambda) {
+  Fmpq d;
+  fmpq_mul(d, pair.F.det_gram, pair.G.det_gram);
+  if (pair.rank() % 2 == 1) fmpq_mul(d, d, lambda);
+  return d;
+}
+
+bool fmpq_is_square(const Fmpq& x) {
+  return fmpq_sgn(x.get()) >= 0 && fmpz_is_square(fmpq_numref(x.get())) && fmpz_is_square(fmpq_denref(x.get()));
+}
+
+std::vector<ulong> constant_route_primes(const ProgressionPair& pair, const Fmpq& lambda) {
+  std::vector<ulong> ps{2, 3};
+  add_prime_factors(ps, Fmpz(pair.F.family.t));
+  add_prime_factors(ps, Fmpz(pair.G.family.t));
+  {
+    Fmpz n;
+    fmpz_abs(n, fmpq_numref(lambda.get()));
+    add_prime_factors(ps, n);
+  }
+  {
+    Fmpz d;
+    fmpz_set(d, fmpq_denref(lambda.get()));
+    add_prime_factors(ps, d);
+  }
+  std::sort(ps.begin(), ps.end());
+  ps.erase(std::unique(ps.begin(), ps.end()), ps.end());
+  return ps;
+}
 
 Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt) {
   Certificate c;
@@ -102,8 +153,10 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
 
   if (pair.identical()) {
     c.verdict = Verdict::Constant;
+    c.constant_route = "identical";
     c.reason = "the same family on the same progression: the two sequences are identical, every rho_p = 1";
     c.constant_square = Fmpq(1);
+    c.constant_value = Fmpq(1);
     arb_one(c.constant);
     c.contains_integer = true;
     c.integer = Fmpz(1);
@@ -117,6 +170,67 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
     return c;
   }
   CIRCLET_ASSERT(opt.Q_max >= 3 && opt.q2 > opt.Q_max, "bad certify options");
+
+  // Route 1': proportional X and a square discriminant product.
+  Fmpq lambda;
+  if (x_proportional(pair, &lambda) && fmpq_is_square(discriminant_product(pair, lambda))) {
+    bool all_constant = true;
+    std::vector<ClassFactor> classes;
+    std::vector<std::pair<ulong, Fmpq>> rhos;
+    Fmpq product(1);
+    std::string why;
+    for (ulong p : constant_route_primes(pair, lambda)) {
+      bool complete = false;
+      auto cls = pinned_classes(pair, p, default_pin_depth(pair, p) + 2, &complete);
+      if (!complete) {
+        all_constant = false;
+        why = "at p = " + std::to_string(p) + " X has a p-adic zero on the progression (beta_p not pinned near it)";
+        break;
+      }
+      for (const auto& pc : cls) {
+        if (!pc.defined() || pc.rho() != cls[0].rho()) {
+          all_constant = false;
+          why = "rho_" + std::to_string(p) + " takes different values";
+          break;
+        }
+        classes.push_back(to_factor(pc));
+      }
+      if (!all_constant) break;
+      rhos.emplace_back(p, cls[0].rho());
+      fmpq_mul(product, product, cls[0].rho());
+    }
+    if (all_constant) {
+      c.verdict = Verdict::Constant;
+      c.constant_route = "proportional";
+      c.lambda = lambda;
+      c.discriminant_product = discriminant_product(pair, lambda);
+      c.finite_classes = std::move(classes);
+      c.finite_rho = std::move(rhos);
+      // L² = (det S_G/det S_F)·(A/A')^{r−2}·Π ρ_p²
+      Fmpq sq, base;
+      fmpq_div(sq, pair.G.det_gram, pair.F.det_gram);
+      fmpq_set_si(base, pair.apF.A, static_cast<ulong>(pair.apG.A));
+      fmpq_pow_si(base, base, c.rank - 2);
+      fmpq_mul(sq, sq, base);
+      fmpq_mul(sq, sq, product);
+      fmpq_mul(sq, sq, product);
+      c.constant_square = sq;
+      // L is rational on this route: det S_G/det S_F·(A/A')^{r−2} = D/(det S_F·λ^{[r odd]})²·(square).
+      CIRCLET_ASSERT(fmpq_is_square(sq), "constant of the proportional route is not rational");
+      fmpz_sqrt(fmpq_numref(c.constant_value.get()), fmpq_numref(sq.get()));
+      fmpz_sqrt(fmpq_denref(c.constant_value.get()), fmpq_denref(sq.get()));
+      arb_set_fmpq(c.constant, sq, prec);
+      arb_sqrt(c.constant, c.constant, prec);
+      c.contains_integer = fmpz_is_one(fmpq_denref(sq.get())) && fmpz_is_square(fmpq_numref(sq.get()));
+      if (c.contains_integer) fmpz_sqrt(c.integer, fmpq_numref(sq.get()));
+      ball_add_margin(c.constant, prec / 2);
+      c.reason = "X_G = " + lambda.str() + " X_F and the characters agree: rho_p = 1 outside {2, 3, primes of t_F t_G lambda}, "
+                 "constant on the progression at those primes; the constant is " + c.constant_value.str() + " (exact)" +
+                 (c.contains_integer ? " = " + c.integer.str() + ", an INTEGER" : ", not an integer");
+      return c;
+    }
+    c.reason = why;  // fall through to the search for a varying ρ_p
+  }
 
   std::vector<PrimeData> primes;
   size_t best = 0;

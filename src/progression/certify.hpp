@@ -3,9 +3,20 @@
 //
 // Procedure.
 //  1. The same family on the same progression: the sequences are identical;
-//     CONSTANT with the exact value 1 (the only CONSTANT this program proves:
-//     for any other pair, constancy of ρ_p at all of the infinitely many
-//     primes p > Q would need an argument it does not make).
+//     CONSTANT with the exact value 1.
+//  1'. Proportional route (weight > 2). If X_G(n) = λ·X_F(n) for every n
+//     (A'·b_F = A·b_G) and D = det S_F · det S_G (· λ for odd rank) is a
+//     rational square, then for every prime p outside the finite set P of
+//     constant_route_primes both β_p are given by the same closed form (MATH.md
+//     §4, unimodular at p) evaluated at the same v_p(X) and the same character
+//     value (even rank: χ_F(p)χ_G(p) = (D/p) = 1; odd rank: the unit parts
+//     differ by λ and χ_{u,F}χ_{u,G} = (D/p) = 1), so ρ_p = 1. If moreover at
+//     each p ∈ P the pinned classes partition Z (no p-adic zero of X left) and
+//     all give the same ρ_p, then ρ_p is constant for every p, and since
+//     (X_F/X_G)^{w−1} = (A/A')^{w−1} exactly, M_F/M_G = L for every n with
+//     L² = (det S_G/det S_F)(A/A')^{r−2} Π_{p∈P} ρ_p² rational: whether L is an
+//     integer is decided exactly. (If X_F, X_G are not proportional, ρ_p varies
+//     at infinitely many p, so no CONSTANT is missed by this route.)
 //  2. Weight ≤ 2: UNDECIDED (the tail Σ q^{1−w} does not converge absolutely and
 //     Hecke's bound does not make the cusp part o(main term)).
 //  3. For primes p = 2, 3, 5, ... ≤ Q_max: the pinned classes at p
@@ -28,5 +39,17 @@ struct CertifyOptions {
 };
 
 Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt);
+
+/// λ with X_G(n) = λ·X_F(n) for all n, if the two affine functions are proportional.
+bool x_proportional(const ProgressionPair& pair, Fmpq* lambda);
+
+/// det S_F · det S_G, times λ for odd rank (route 1' above).
+Fmpq discriminant_product(const ProgressionPair& pair, const Fmpq& lambda);
+
+/// Is x the square of a rational?
+bool fmpq_is_square(const Fmpq& x);
+
+/// The finite set P of route 1': 2, 3 and the primes dividing t_F, t_G and λ, ascending.
+std::vector<ulong> constant_route_primes(const ProgressionPair& pair, const Fmpq& lambda);
 
 }  // namespace circlet

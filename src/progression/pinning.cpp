@@ -53,8 +53,9 @@ ulong default_pin_depth(const ProgressionPair& pair, ulong p) {
   return static_cast<ulong>(std::max(va, vb) + kappa + 2);
 }
 
-std::vector<PinnedClass> pinned_classes(const ProgressionPair& pair, ulong p, ulong e_max) {
+std::vector<PinnedClass> pinned_classes(const ProgressionPair& pair, ulong p, ulong e_max, bool* complete) {
   std::vector<PinnedClass> out;
+  if (complete) *complete = true;
   // Breadth-first refinement of the class tree.
   struct Node { Fmpz r; ulong e; };
   std::vector<Node> level{{Fmpz(0), 0}};
@@ -70,7 +71,9 @@ std::vector<PinnedClass> pinned_classes(const ProgressionPair& pair, ulong p, ul
         c.betaF = local_density(pair.F, progression_at(pair.apF, node.r), p);
         c.betaG = local_density(pair.G, progression_at(pair.apG, node.r), p);
         out.push_back(std::move(c));
-      } else if (e < e_max) {
+      } else if (e == e_max) {
+        if (complete) *complete = false;
+      } else {
         for (ulong j = 0; j < p; ++j) {
           Fmpz child;
           fmpz_mul_ui(child, pe, j);

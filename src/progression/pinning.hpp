@@ -57,7 +57,9 @@ struct PinnedClass {
 /// splitting into p subclasses until both sides are pinned, down to e_max.
 /// Classes still unpinned at e_max (around the p-adic zeros of X_F, X_G) are
 /// left out. Sorted by (e, r).
-std::vector<PinnedClass> pinned_classes(const ProgressionPair& pair, ulong p, ulong e_max);
+/// If `complete` is given, it is set to whether nothing was left out (the
+/// classes then partition Z).
+std::vector<PinnedClass> pinned_classes(const ProgressionPair& pair, ulong p, ulong e_max, bool* complete = nullptr);
 
 /// The default depth used by certify: max(v_p(A), v_p(A')) + κ + 2.
 ulong default_pin_depth(const ProgressionPair& pair, ulong p);

@@ -203,9 +203,108 @@ void verify_nonconvergent(Ctx& ctx, const nlohmann::json& j, const ProgressionPa
   if (!j.contains("disjoint") || j["disjoint"] != true) ctx.fail("field 'disjoint' must be true");
 }
 
+void verify_constant_proportional(Ctx& ctx, const nlohmann::json& j, const ProgressionPair& pair, slong prec) {
+  if (!tail_converges(pair.rank())) ctx.fail("CONSTANT for counts needs weight > 2 (the cusp part), weight is " + pair.weight_str());
+  Fmpq lambda;
+  if (!x_proportional(pair, &lambda)) {
+    ctx.fail("verdict CONSTANT: X_G is not a constant multiple of X_F on these progressions");
+    return;
+  }
+  if (Fmpq::from_str(str_field(j, "lambda")) != lambda) ctx.fail("lambda is not " + lambda.str());
+  Fmpq D = discriminant_product(pair, lambda);
+  if (!fmpq_is_square(D)) {
+    ctx.fail("verdict CONSTANT: the discriminant product " + D.str() + " is not a square, so the characters differ");
+    return;
+  }
+  ctx.ok("X_G = " + lambda.str() + " X_F and " + D.str() + " is a square: rho_p = 1 outside the finite primes");
+  std::vector<ulong> primes = constant_route_primes(pair, lambda);
+  const auto& fin = j.at("finite_primes");
+  if (!fin.is_array() || fin.size() != primes.size()) {
+    ctx.fail("finite_primes must list exactly the primes 2, 3 and those dividing t_F, t_G and lambda");
+    return;
+  }
+  Fmpq product(1);
+  for (size_t i = 0; i < primes.size(); ++i) {
+    const ulong p = primes[i];
+    const auto& fp = fin[i];
+    std::string name = "finite prime p = " + std::to_string(p);
+    if (static_cast<ulong>(int_field(fp, "p")) != p) {
+      ctx.fail(name + ": expected at this position");
+      continue;
+    }
+    Fmpq rho = Fmpq::from_str(str_field(fp, "rho"));
+    // The classes must partition Z: Σ p^{−e} = 1 and no two overlap.
+    Fmpq measure(0);
+    std::vector<std::pair<ulong, Fmpz>> seen;
+    for (const auto& cj : fp.at("classes")) {
+      ulong e = static_cast<ulong>(int_field(cj, "e"));
+      if (e > 64) { ctx.fail(name + ": class exponent too large"); continue; }
+      Fmpz r = Fmpz::from_str(str_field(cj, "residue")), pe;
+      fmpz_ui_pow_ui(pe, p, e);
+      if (fmpz_sgn(r) < 0 || fmpz_cmp(r, pe) >= 0) { ctx.fail(name + ": residue " + r.str() + " not in [0, p^e)"); continue; }
+      for (const auto& [e2, r2] : seen) {
+        Fmpz pm, a, b;
+        fmpz_ui_pow_ui(pm, p, std::min(e, e2));
+        fmpz_mod(a, r, pm);
+        fmpz_mod(b, r2, pm);
+        if (a == b) ctx.fail(name + ": classes " + r.str() + " mod p^" + std::to_string(e) + " and " + r2.str() + " mod p^" + std::to_string(e2) + " overlap");
+      }
+      seen.emplace_back(e, r);
+      Fmpq part;
+      fmpq_set_fmpz_frac(part, Fmpz(1), pe);
+      fmpq_add(measure, measure, part);
+      if (!is_pinned(pair.F, pair.xF, p, e, r) || !is_pinned(pair.G, pair.xG, p, e, r)) {
+        ctx.fail(name + ": beta_p is not constant on n = " + r.str() + " mod " + pe.str());
+        continue;
+      }
+      Fmpq bF = Fmpq::from_str(str_field(cj, "beta_F")), bG = Fmpq::from_str(str_field(cj, "beta_G"));
+      for (int rep = 0; rep < 2; ++rep) {
+        Fmpz n = r;
+        if (rep == 1) fmpz_add(n, n, pe);
+        Fmpq cF = density_by_counting(pair.F, progression_at(pair.apF, n), p);
+        Fmpq cG = density_by_counting(pair.G, progression_at(pair.apG, n), p);
+        if (cF != bF) ctx.fail(name + ": local factor beta_F is " + bF.str() + " in the certificate, counting mod p^j at n = " + n.str() + " gives " + cF.str());
+        if (cG != bG) ctx.fail(name + ": local factor beta_G is " + bG.str() + " in the certificate, counting mod p^j at n = " + n.str() + " gives " + cG.str());
+      }
+      Fmpq q;
+      if (bG.is_zero()) { ctx.fail(name + ": beta_G = 0"); continue; }
+      fmpq_div(q, bF, bG);
+      if (q != rho) ctx.fail(name + ": rho on n = " + r.str() + " mod " + pe.str() + " is " + q.str() + ", not the common value " + rho.str());
+    }
+    if (measure != Fmpq(1)) ctx.fail(name + ": the classes do not cover every n (measure " + measure.str() + ")");
+    else ctx.ok(name + ": rho_p = " + rho.str() + " on a partition of Z into pinned classes (counted)");
+    fmpq_mul(product, product, rho);
+  }
+  Fmpq sq, base;
+  fmpq_div(sq, pair.G.det_gram, pair.F.det_gram);
+  fmpq_set_si(base, pair.apF.A, static_cast<ulong>(pair.apG.A));
+  fmpq_pow_si(base, base, pair.rank() - 2);
+  fmpq_mul(sq, sq, base);
+  fmpq_mul(sq, sq, product);
+  fmpq_mul(sq, sq, product);
+  const auto& cj = j.at("constant");
+  if (Fmpq::from_str(str_field(cj, "square")) != sq) ctx.fail("constant.square is not the recomputed " + sq.str());
+  Fmpq value = Fmpq::from_str(str_field(cj, "value")), v2;
+  fmpq_mul(v2, value, value);
+  if (v2 != sq || fmpq_sgn(value.get()) <= 0) ctx.fail("constant.value squared is not constant.square");
+  Arb ball;
+  arb_set_fmpq(ball, sq, prec);
+  arb_sqrt(ball, ball, prec);
+  check_ball(ctx, cj.at("interval"), ball, "constant.interval");
+  bool integer = fmpz_is_one(fmpq_denref(sq.get())) && fmpz_is_square(fmpq_numref(sq.get()));
+  if (!cj.contains("contains_integer") || cj["contains_integer"] != integer)
+    ctx.fail(std::string("constant.contains_integer must be ") + (integer ? "true" : "false"));
+  if (integer && (!cj.contains("integer") || cj["integer"] != value.str()))
+    ctx.fail("constant.integer must be " + value.str());
+}
+
 void verify_constant(Ctx& ctx, const nlohmann::json& j, const ProgressionPair& pair, slong prec) {
+  if (j.value("constant_route", std::string()) == "proportional") {
+    verify_constant_proportional(ctx, j, pair, prec);
+    return;
+  }
   if (!pair.identical()) {
-    ctx.fail("verdict CONSTANT is certified only for the same family on the same progression; this pair is not");
+    ctx.fail("verdict CONSTANT: the sequences are not identical and the certificate gives no other route");
     return;
   }
   const auto& cj = j.at("constant");

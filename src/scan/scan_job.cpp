@@ -50,7 +50,8 @@ nlohmann::json run_scan_job(ScanContext& ctx, const ScanJob& job) {
       r["limit1"] = interval_display(c.classes[0].limit);
       r["limit2"] = interval_display(c.classes[1].limit);
     } else if (c.verdict == Verdict::Constant) {
-      r["constant"] = c.constant.str(20);
+      r["constant"] = c.constant_value.str();
+      r["k"] = c.constant_value.str();
       r["contains_integer"] = c.contains_integer;
     }
   } else {
