@@ -265,8 +265,8 @@ double main_term_fast(const QuadraticModel& model, const Fmpz& n, ulong euler_pr
   // Odd rank: σ_∞ · Π_{p≤P} (1 − χ(p)p^{−k})^{−1} / ζ(2k) · C in double (NOT CERTIFIED).
   MainTermOptions o;
   o.with_parts = false;
-  o.max_exact_conductor = 0;       // no O(f) work
-  o.max_euler_prime = 2;           // the ball L-value is not used here
+  o.max_exact_conductor = 0;  // no O(f) work
+  o.skip_l_value = true;      // the L-value is approximated below instead
   const int r = model.rank;
   const ulong k = (r - 1) / 2;
   MainTerm m = main_term(model, n, 32, o);
