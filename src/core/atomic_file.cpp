@@ -1,6 +1,7 @@
 #include "core/atomic_file.hpp"
 
 #include <fcntl.h>
+#include <sys/stat.h>
 #include <unistd.h>
 
 #include <cerrno>
@@ -47,6 +48,9 @@ void write_file_atomically(const std::string& path, const std::string& content) 
 }
 
 std::string read_file(const std::string& path) {
+  struct stat st {};
+  if (::stat(path.c_str(), &st) != 0) throw UserError("cannot read '" + path + "': " + std::strerror(errno));
+  if (!S_ISREG(st.st_mode)) throw UserError("cannot read '" + path + "': not a regular file");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw UserError("cannot read '" + path + "': " + std::strerror(errno));
   std::ostringstream ss;
