@@ -127,3 +127,9 @@ TEST_CASE("arcs --gauss adds the route (b) coefficient and checks it", "[cli][ar
   CHECK(big.status == 2);
   CHECK(big.err == "circlet: error: --gauss is limited to --upto 300 (cost grows like K^3)\n");
 }
+
+TEST_CASE("remainder caps the number of rows", "[cli][remainder][errors]") {
+  Run a = run("remainder c9 --to 1000000");
+  CHECK(a.status == 2);
+  CHECK(a.err == "circlet: error: --to: at most 1000000 rows; thin the range out with --ap A,B\n");
+}

@@ -36,6 +36,8 @@ struct RemainderOptions {
   std::string output;
 };
 
+constexpr long kMaxRows = 1000000;
+
 std::string ball_text(const Arb& x, slong digits) {
   char* c = arb_get_str(x.get(), digits, ARB_STR_MORE);
   std::string s(c);
@@ -71,6 +73,9 @@ void run_remainder(const RemainderOptions& opt) {
     n_max = parse_nonnegative("--to", opt.to, LONG_MAX);
     K = n_max;
   }
+  // Every row is kept in memory (about 0.7 KB each) for the summary: cap the table.
+  if (K > kMaxRows - 1)
+    throw UserError("--to: at most " + std::to_string(kMaxRows) + " rows; thin the range out with --ap A,B");
   std::vector<long> ks;
   std::vector<Fmpz> ns;
   for (long k = 0; k <= K; ++k) {
