@@ -101,8 +101,33 @@ Fmpq generalised_bernoulli(const Fmpz& d, ulong k) {
   ulong f = (ulong)(ds < 0 ? -ds : ds);
   // S_j = Σ_{a=1}^{f} χ(a) a^j, j = 0..k, exact integers.
   std::vector<Fmpz> S(k + 1);
+  // Fast path: when f^{k+1} < 2^120 every partial sum fits a signed 128-bit integer
+  // (|S_j| ≤ f·f^j), so accumulate in __int128 and convert once.
+  const bool fits128 = (double)(k + 1) * std::log2((double)f + 1) < 120;
+  if (fits128) {
+    std::vector<__int128> T(k + 1, 0);
+    for (ulong a = 1; a <= f; ++a) {
+      int c = (f == 1) ? 1 : kronecker_symbol(ds, a);
+      if (c == 0) continue;
+      __int128 pw = 1;
+      for (ulong j = 0; j <= k; ++j) {
+        T[j] += c > 0 ? pw : -pw;
+        pw *= a;
+      }
+    }
+    for (ulong j = 0; j <= k; ++j) {
+      // split into high and low 64-bit halves for FLINT
+      __int128 v = T[j];
+      bool neg = v < 0;
+      unsigned __int128 u = neg ? (unsigned __int128)(-v) : (unsigned __int128)v;
+      Fmpz hi = Fmpz::from_ui((ulong)(u >> 64)), lo = Fmpz::from_ui((ulong)u);
+      fmpz_mul_2exp(S[j].get(), hi.get(), 64);
+      fmpz_add(S[j].get(), S[j].get(), lo.get());
+      if (neg) fmpz_neg(S[j].get(), S[j].get());
+    }
+  }
   Fmpz pw;
-  for (ulong a = 1; a <= f; ++a) {
+  for (ulong a = 1; !fits128 && a <= f; ++a) {
     int c = (f == 1) ? 1 : kronecker_symbol(ds, a);
     if (c == 0) continue;
     fmpz_one(pw.get());
