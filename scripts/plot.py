@@ -34,6 +34,7 @@ import os
 import re
 import shlex
 import sys
+import textwrap
 from fractions import Fraction
 
 import matplotlib
@@ -324,8 +325,10 @@ def caption(fig, *provs):
     for p in provs:
         if not p:
             continue
-        lines.append("%s %s  |  %s  |  %s" % (p.get("program", "circlet"), p.get("version", "?"),
-                                               p.get("command", "?"), p.get("date", "")))
+        line = "%s %s  |  %s  |  %s" % (p.get("program", "circlet"), p.get("version", "?"), p.get("command", "?"),
+                                         p.get("date", ""))
+        # Wrap long commands so the whole provenance stays inside the fixed-size figure.
+        lines.extend(textwrap.wrap(line, width=128, subsequent_indent="    ", break_on_hyphens=False))
     text = "\n".join(lines)
     fig.text(0.01, 0.005, text, fontsize=7, family="monospace", ha="left", va="bottom", color="0.3",
              gid="caption")
@@ -343,7 +346,7 @@ def _label(ax, xlabel, ylabel):
 def new_figure(nrows=1, height_ratios=None):
     fig, axes = plt.subplots(nrows, 1, figsize=FIGSIZE, dpi=DPI, sharex=(nrows > 1),
                              gridspec_kw={"height_ratios": height_ratios} if height_ratios else None)
-    fig.subplots_adjust(left=0.12, right=0.97, top=0.90, bottom=0.16, hspace=0.08)
+    fig.subplots_adjust(left=0.12, right=0.97, top=0.90, bottom=0.17, hspace=0.08)
     return fig, axes
 
 
@@ -386,7 +389,7 @@ def ratio_points(table):
         g = table.col("count_G", "G")
         exact = [float(Fraction(int(a), int(b))) if int(b) != 0 else None for a, b in zip(f, g)]
     main = None
-    mname = table.find("main_ratio", "ratio_main", "main_term_ratio", "main_ratio_ball")
+    mname = table.find("main_term_ratio", "main_ratio", "ratio_main", "main_ratio_ball")
     if mname:
         main = [parse_ball(v) if v not in (None, "", "undefined") else (None, None) for v in table.col(mname)]
     elif table.find("main_ratio_mid"):
@@ -454,9 +457,15 @@ def plot_ratio(table, out, cert=None):
         ax.plot(*zip(*pts), "o", ms=3, color="tab:blue", label=r"$R(n)$ exact")
     if main:
         mp = [(k, m) for k, (m, r) in zip(n, main) if m is not None and math.isfinite(m)]
-        if mp:
-            ax.plot(*zip(*mp), "-", lw=0.8, color="0.2", alpha=0.7,
-                    label=r"$M_F/M_G$ (main-term ratio)")
+        if split:
+            # The main-term ratio along each certified class: it tends to that class's band.
+            for i, (_, _, _, r, M) in enumerate(split):
+                sel = [(k, m) for k, m in mp if k % M == r]
+                if sel:
+                    ax.plot(*zip(*sel), "-", lw=1.0, color=colors[i], alpha=0.8,
+                            label=r"$M_F/M_G$ on $n \equiv %d\ (\mathrm{mod}\ %d)$" % (r, M))
+        elif mp:
+            ax.plot(*zip(*mp), "x", ms=3, color="0.2", alpha=0.6, label=r"$M_F/M_G$ (main-term ratio)")
     for i, (label, lo, hi, r, M) in enumerate(bands):
         c = colors[i] if r is not None else "tab:orange"
         ax.axhspan(lo, hi, color=c, alpha=0.25, lw=0)
