@@ -156,13 +156,14 @@ TEST_CASE("plot.py remainder: normalised E(n) with the Deligne and Hecke scales"
   const TempDir tmp;
   REQUIRE(!tmp.path.empty());
   const std::string& d = tmp.path;
-  REQUIRE(run(kCirclet + " remainder c7 --to 400 -o " + d + "/rem.csv >/dev/null 2>&1") == 0);
+  REQUIRE(run(kCirclet + " remainder c6 --to 400 -o " + d + "/rem.csv >/dev/null 2>&1") == 0);
   std::string svg = render_both("remainder", d + "/rem.csv", "", d, "remainder");
   CHECK(svg_has_label(svg, "$n$"));
   CHECK(svg_has_label(svg, "$E(n)\\,/\\,X^{(w-1)/2}$,  $X = n + \\Delta$"));
   CHECK(svg_has_label(svg, "Deligne scale $\\pm X^{(w-1)/2}$"));
   CHECK(svg_has_label(svg, "Hecke scale $\\pm X^{w/2}$"));
-  CHECK(svg.find("circlet remainder c7") != std::string::npos);
+  CHECK(svg.find("weight $w = 5/2$") != std::string::npos);  // c6: rank 5
+  CHECK(svg.find("circlet remainder c6") != std::string::npos);
 }
 
 TEST_CASE("plot.py remainder from a `circlet main --to` table (n, count, main, remainder)", "[plots]") {
@@ -171,12 +172,12 @@ TEST_CASE("plot.py remainder from a `circlet main --to` table (n, count, main, r
   const TempDir tmp;
   REQUIRE(!tmp.path.empty());
   const std::string& d = tmp.path;
-  // c6: weight 5/2, rank 5, X = n + 35/24 (MATH.md §2).
-  REQUIRE(run(kCirclet + " main c6 --to 300 -o " + d + "/main.csv >/dev/null 2>&1") == 0);
+  // c9: weight 4 (exact main terms, fast), rank 8, X = n + 10/3 (MATH.md §2).
+  REQUIRE(run(kCirclet + " main c9 --to 300 -o " + d + "/main.csv >/dev/null 2>&1") == 0);
   std::string svg = render_both("remainder", d + "/main.csv", "", d, "remainder");
   CHECK(svg_has_label(svg, "$E(n)\\,/\\,X^{(w-1)/2}$,  $X = n + \\Delta$"));
-  CHECK(svg.find("weight $w = 5/2$") != std::string::npos);
-  CHECK(svg.find("circlet main c6 --to 300") != std::string::npos);
+  CHECK(svg.find("weight $w = 4$") != std::string::npos);
+  CHECK(svg.find("circlet main c9 --to 300") != std::string::npos);
 }
 
 TEST_CASE("plot.py arcs: partial sums against K with the main-term ball and the tail bound", "[plots]") {
