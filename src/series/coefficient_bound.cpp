@@ -1,6 +1,8 @@
 #include "series/coefficient_bound.hpp"
 
 #include <arb.h>
+#include <arb_hypgeom.h>
+#include <flint/fmpq.h>
 #include <flint/fmpz.h>
 
 #include <cmath>
@@ -29,6 +31,59 @@ Fmpz box_power(const Fmpz& num, const Fmpz& den, long k) {
 CoefficientBound eta_quotient_coefficient_bound(const EtaQuotient& quotient, long N, slong prec);
 
 namespace {
+// The "slice" bound. Every family counts lattice points on an ellipsoid
+// {y ∈ Z^r : (y + c)ᵀ S (y + c) = X}. Split y = (z, w) with w the last
+// coordinate: for fixed z, the equation is a quadratic in w with leading
+// coefficient S_ww > 0, so at most 2 integers w solve it; and such z lie in the
+// projected ellipsoid E = {z : (z + c_z)ᵀ S' (z + c_z) ≤ X}, S' the Schur
+// complement of S_ww (min over real w of the form). The unit cubes z + [−½, ½]^d
+// (d = r − 1) are disjoint and lie in E⁺ = {(u + c_z)ᵀ S' (u + c_z) ≤ (√X + ρ)²},
+// ρ = sqrt(λ_max(S')·d/4), by the triangle inequality for the norm √(uᵀS'u) and
+// vᵀS'v ≤ λ_max |v|² ≤ λ_max d/4 on the cube. Hence
+//   count ≤ 2 · vol(E⁺) = 2 · V_d (√X + ρ)^d / sqrt(det S'),  V_d = π^{d/2}/Γ(d/2 + 1).
+// Evaluated in Arb (X, λ_max, det S' exact rationals), rounded up. It increases
+// with X, so its value at n = N bounds every n ≤ N.
+Fmpz slice_bound(const fmpq_t X, long d, const fmpq_t lambda_max, const fmpq_t det, slong prec) {
+  arb_t x, rho, vd, t, out;
+  arb_init(x); arb_init(rho); arb_init(vd); arb_init(t); arb_init(out);
+  arb_set_fmpq(x, X, prec);
+  arb_sqrt(x, x, prec);                        // √X
+  arb_set_fmpq(rho, lambda_max, prec);
+  arb_mul_si(rho, rho, d, prec);
+  arb_div_ui(rho, rho, 4, prec);
+  arb_sqrt(rho, rho, prec);                    // ρ = sqrt(λ_max d / 4)
+  arb_add(x, x, rho, prec);
+  arb_pow_ui(out, x, static_cast<ulong>(d), prec);  // (√X + ρ)^d
+  arb_const_pi(vd, prec);
+  arb_set_si(t, d);
+  arb_div_ui(t, t, 2, prec);
+  arb_pow(vd, vd, t, prec);                    // π^{d/2}
+  arb_add_ui(t, t, 1, prec);
+  arb_gamma(t, t, prec);                       // Γ(d/2 + 1)
+  arb_div(vd, vd, t, prec);
+  arb_mul(out, out, vd, prec);
+  arb_set_fmpq(t, det, prec);
+  arb_rsqrt(t, t, prec);
+  arb_mul(out, out, t, prec);
+  arb_mul_ui(out, out, 2, prec);
+  arf_t ub;
+  arf_init(ub);
+  arb_get_ubound_arf(ub, out, prec);
+  CIRCLET_ASSERT(arf_is_finite(ub), "slice bound is not finite");
+  Fmpz r;
+  arf_get_fmpz(r.get(), ub, ARF_RND_CEIL);
+  arf_clear(ub);
+  arb_clear(x); arb_clear(rho); arb_clear(vd); arb_clear(t); arb_clear(out);
+  return r;
+}
+
+void take_smaller(CoefficientBound& r, const Fmpz& b, const char* method) {
+  if (fmpz_cmp(b.get(), r.bound.get()) < 0) {
+    r.bound = b;
+    r.method = method;
+  }
+}
+
 // t-cores and self-conjugate t-cores are partitions, so their counts are at most
 // p(n) ≤ p(N) = [q^N] E(q)^{−1}, bounded by the majorant with A = 1. For T large
 // against sqrt(N) this is far smaller than the box bound (e.g. c_1000, N = 100).
@@ -62,6 +117,21 @@ CoefficientBound family_coefficient_bound(const Family& family, long N) {
       fmpz_add_si(num.get(), num.get(), t * t - 1);
       r.bound = box_power(num, den, t - 1);
       r.method = "box bound c_t(n) <= (floor(2 sqrt(2X/t)) + 1)^(t-1), X = n + (t^2-1)/24";
+      if (t >= 2) {
+        // Slice bound (above), S = (t/2)(I + J) on the free coordinates, r = t − 1,
+        // d = t − 2: S' = (t/2)(I_d + J_d/2) with eigenvalues t/2 and
+        // (t/2)(1 + d/2) = t²/4, det S' = (t/2)^d · (t/2) = (t/2)^{t−1}.
+        Fmpq X, lam, det;
+        fmpq_set_si(X.get(), t * t - 1, 24);
+        fmpq_add_fmpz(X.get(), X.get(), Fmpz(N).get());
+        fmpq_set_si(lam.get(), t * t, 4);
+        Fmpz num, den;
+        fmpz_ui_pow_ui(num.get(), static_cast<ulong>(t), static_cast<ulong>(t - 1));
+        fmpz_ui_pow_ui(den.get(), 2, static_cast<ulong>(t - 1));
+        fmpq_set_fmpz_frac(det.get(), num.get(), den.get());
+        take_smaller(r, slice_bound(X.get(), t - 2, lam.get(), det.get(), 64),
+                     "slice bound c_t(n) <= 2 V_d (sqrt X + t sqrt(d)/4)^d / (t/2)^((t-1)/2), d = t-2");
+      }
       cap_by_partitions(r, N);
       return r;
     }
@@ -79,6 +149,17 @@ CoefficientBound family_coefficient_bound(const Family& family, long N) {
       fmpz_add(num.get(), num.get(), S.get());
       r.bound = box_power(num, den, m);
       r.method = "box bound sc_t(n) <= (floor(2 sqrt(X/t)) + 1)^m, X = n + sum (2i+1-t)^2/(4t)";
+      if (m >= 1) {
+        // Slice bound (above): S = t·I_m, so S' = t·I_d, d = m − 1, λ_max = t, det = t^d.
+        Fmpq X, lam(t), det;
+        fmpq_set_fmpz_frac(X.get(), S.get(), Fmpz(4 * t).get());
+        fmpq_add_fmpz(X.get(), X.get(), Fmpz(N).get());
+        Fmpz dd;
+        fmpz_ui_pow_ui(dd.get(), static_cast<ulong>(t), static_cast<ulong>(m - 1));
+        fmpq_set_fmpz_frac(det.get(), dd.get(), Fmpz(1).get());
+        take_smaller(r, slice_bound(X.get(), m - 1, lam.get(), det.get(), 64),
+                     "slice bound sc_t(n) <= 2 V_d (sqrt X + sqrt(t d)/2)^d / t^(d/2), d = m-1");
+      }
       cap_by_partitions(r, N);
       return r;
     }
@@ -92,6 +173,12 @@ CoefficientBound family_coefficient_bound(const Family& family, long N) {
       fmpz_add_ui(s.get(), s.get(), 1);
       fmpz_pow_ui(r.bound.get(), s.get(), static_cast<ulong>(t));
       r.method = "box bound r_S(n) <= (2 floor(sqrt n) + 1)^S";
+      {
+        // Slice bound (above): S = I_S, S' = I_d, d = S − 1, λ_max = 1, det = 1.
+        Fmpq X(N), one(1);
+        take_smaller(r, slice_bound(X.get(), t - 1, one.get(), one.get(), 64),
+                     "slice bound r_S(n) <= 2 V_d (sqrt n + sqrt(d)/2)^d, d = S-1");
+      }
       return r;
     }
   }

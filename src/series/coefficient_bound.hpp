@@ -4,9 +4,12 @@
 // number of primes is never chosen by watching residues stabilise).
 //
 // Two kinds of bound:
-//  * family_coefficient_bound: the "box" bound from the abacus / lattice model
-//    of MATH.md §2 (every coordinate of a solution lies in a short interval).
-//    Exact integer arithmetic; valid for the counted families only.
+//  * family_coefficient_bound: for the counted families, the smallest of
+//    - the "box" bound from the abacus / lattice model of MATH.md §2 (every
+//      coordinate of a solution lies in a short interval; exact integers),
+//    - the "slice" bound: at most 2 solutions per lattice point of the
+//      projected ellipsoid, counted by volume (Arb, rounded up),
+//    - for c_t and sc_t, the partition bound p(n) ≤ p(N).
 //  * eta_quotient_coefficient_bound: a majorant bound for an arbitrary eta
 //    quotient, evaluated in Arb ball arithmetic and rounded upwards.
 #include <string>
@@ -26,8 +29,8 @@ struct CoefficientBound {
   std::string method;
 };
 
-/// Box bound for c_t, sc_t and r_S, for all n ≤ N (N ≥ 0), capped for c_t and
-/// sc_t by the partition bound p(n) ≤ p(N). See the .cpp for the derivations.
+/// Bound for c_t, sc_t and r_S, for all n ≤ N (N ≥ 0): the smallest of the box,
+/// slice and (c_t, sc_t) partition bounds. See the .cpp for the derivations.
 CoefficientBound family_coefficient_bound(const Family& family, long N);
 
 /// General bound for an eta quotient Π_d Π_k (1 − q^{dk})^{e_d}, all n ≤ N:
