@@ -4,6 +4,7 @@
 #include "series/eta_series.hpp"
 
 #include <flint/fmpz_poly.h>
+#include <unistd.h>
 
 #include <catch2/catch.hpp>
 #include <cmath>

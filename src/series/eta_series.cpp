@@ -10,7 +10,6 @@
 #include <fstream>
 #include <mutex>
 #include <numeric>
-#include <sstream>
 #include <thread>
 
 #include "core/error.hpp"
