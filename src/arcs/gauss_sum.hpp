@@ -47,7 +47,8 @@ class QuadraticSum1D {
   void value(acb_t res, ulong beta, slong prec) const;
 
  private:
-  ulong m_, g_, mp_, ap_, ap_inv_;  // m' = m/g, α' = α/g, inverse of α' (mod m' odd) or 2α'... see .cpp
+  ulong m_, g_, mp_, ap_;  // m, g = gcd(α, m), m' = m/g, α' = α/g mod m'
+  ulong ap_inv_;           // (2α')^{−1} mod m' when m' is odd; α'^{−1} mod m'/2 when m' is even
   const std::vector<acb_struct>* roots_;
   acb_t base_[2];  // R'_{m'}(α', 0), R'_{m'}(α', 1)
 };
