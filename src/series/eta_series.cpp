@@ -24,6 +24,35 @@ using NTL::zz_pX;
 
 long length_at(long N, long level) { return N / level + 1; }
 
+// Runs fn(i) for 0 ≤ i < n on up to `threads` threads; helper threads run under
+// the caller's zz_p context (NTL contexts are per thread). Used when there are
+// fewer primes than threads, so that one prime's independent pieces overlap.
+void parallel_for(long n, int threads, const std::function<void(long)>& fn) {
+  if (threads <= 1 || n <= 1) {
+    for (long i = 0; i < n; ++i) fn(i);
+    return;
+  }
+  NTL::zz_pContext context;
+  context.save();
+  std::atomic<long> next{0};
+  std::exception_ptr failure;
+  std::mutex failure_mutex;
+  auto work = [&]() {
+    NTL::zz_pPush push(context);
+    try {
+      for (long i = next++; i < n; i = next++) fn(i);
+    } catch (...) {
+      std::lock_guard<std::mutex> lock(failure_mutex);
+      if (!failure) failure = std::current_exception();
+    }
+  };
+  std::vector<std::thread> helpers;
+  for (int t = 1; t < threads && t < n; ++t) helpers.emplace_back(work);
+  work();
+  for (auto& h : helpers) h.join();
+  if (failure) std::rethrow_exception(failure);
+}
+
 // E(q) = Σ_{k∈Z} (−1)^k q^{k(3k−1)/2} mod p, truncated to length L.
 zz_pX pentagonal_series(long L) {
   const long p = zz_p::modulus();
@@ -129,7 +158,7 @@ long coefficient_rep(const zz_pX& a, long i) { return i <= NTL::deg(a) ? NTL::re
 // F = Σ_r Q^r F_r(Q^m), and multiply each F_r by G at length ⌈(L − r)/m⌉.
 // G is transformed once (truncated FFT of the full product length, so no
 // wrap-around) and reused for all m phases.
-zz_pX mul_polyphase(const zz_pX& F, long L, const zz_pX& G, long m) {
+zz_pX mul_polyphase(const zz_pX& F, long L, const zz_pX& G, long m, int threads) {
   if (m == 1) {
     zz_pX out;
     NTL::MulTrunc(out, F, G, L);
@@ -142,27 +171,29 @@ zz_pX mul_polyphase(const zz_pX& F, long L, const zz_pX& G, long m) {
   if (dG < 0) return out;  // G = 0
   const long plen = len0 + dG;          // product length of a phase, untruncated
   const long s = NTL::NextPowerOfTwo(plen);
-  NTL::fftRep RG, RF;
+  NTL::fftRep RG;
   NTL::TofftRep_trunc(RG, G, s, plen, 0, dG);
-  zz_pX Fr, Hr;
-  for (long r = 0; r < m && r < L; ++r) {
+  // Phases write disjoint coefficients r + j·m of `out`; RG is only read.
+  parallel_for(std::min(m, L), threads, [&](long r) {
     const long len = (L - 1 - r) / m + 1;
+    zz_pX Fr, Hr;
     Fr.rep.SetLength(len);
     for (long j = 0; j < len; ++j) Fr.rep[j].LoopHole() = coefficient_rep(F, r + j * m);
     Fr.normalize();
-    if (NTL::deg(Fr) < 0) continue;
+    if (NTL::deg(Fr) < 0) return;
+    NTL::fftRep RF;
     NTL::TofftRep_trunc(RF, Fr, s, plen);
     NTL::mul(RF, RF, RG);
     NTL::FromfftRep(Hr, RF, 0, len - 1);
     const long top = std::min(len - 1, NTL::deg(Hr));
     for (long j = 0; j <= top; ++j) out.rep[r + j * m] = Hr.rep[j];
-  }
+  });
   out.normalize();
   return out;
 }
 
 // a · b as a series in q^g, g = gcd(a.level, b.level).
-Piece combine(const Piece& a, const Piece& b, long N) {
+Piece combine(const Piece& a, const Piece& b, long N, int threads) {
   const long g = std::gcd(a.level, b.level);
   const long L = length_at(N, g);
   const long ma = a.level / g, mb = b.level / g;
@@ -179,7 +210,7 @@ Piece combine(const Piece& a, const Piece& b, long N) {
     for (long j = 0; j <= top; ++j) F.rep[j * ms] = spread_me.s.rep[j];
     F.normalize();
   }
-  return Piece{g, mul_polyphase(F, L, other.s, mo)};
+  return Piece{g, mul_polyphase(F, L, other.s, mo, threads)};
 }
 
 // The order in which factors are multiplied: repeatedly the pair of pieces with
@@ -217,7 +248,7 @@ double factor_cost(long e, long L) {
 // Residues of the coefficients 0..N modulo the current zz_p modulus written to
 // out[n * stride]. Reports fractions of this prime's work through `progress`.
 void eta_series_mod_current(const EtaQuotient& quotient, long N, ulong* out, long stride,
-                            const std::function<void(double)>& progress) {
+                            const std::function<void(double)>& progress, int threads = 1) {
   const EtaQuotient q = normalise(quotient);
   std::vector<long> levels;
   for (const auto& f : q) levels.push_back(f.d);
@@ -225,19 +256,23 @@ void eta_series_mod_current(const EtaQuotient& quotient, long N, ulong* out, lon
   double total = 0, done = 0;
   for (const auto& f : q) total += factor_cost(f.e, length_at(N, f.d));
   for (const auto& m : schedule) total += static_cast<double>(length_at(N, m.level));
+  std::mutex tick_mutex;
   auto tick = [&](double c) {
+    std::lock_guard<std::mutex> lock(tick_mutex);
     done += c;
     if (progress) progress(total > 0 ? std::min(1.0, done / total) : 1.0);
   };
 
-  std::vector<Piece> pieces;
-  for (const auto& f : q) {
+  // The factors are independent: with spare threads they are computed side by side.
+  std::vector<Piece> pieces(q.size());
+  parallel_for(static_cast<long>(q.size()), threads, [&](long i) {
+    const auto& f = q[static_cast<size_t>(i)];
     const long L = length_at(N, f.d);
-    pieces.push_back(Piece{f.d, euler_power(f.e, L)});
+    pieces[static_cast<size_t>(i)] = Piece{f.d, euler_power(f.e, L)};
     tick(factor_cost(f.e, L));
-  }
+  });
   for (const auto& m : schedule) {
-    Piece merged = combine(pieces[m.i], pieces[m.j], N);
+    Piece merged = combine(pieces[m.i], pieces[m.j], N, threads);
     pieces[m.i] = std::move(merged);
     pieces.erase(pieces.begin() + static_cast<long>(m.j));
     tick(static_cast<double>(length_at(N, m.level)));
@@ -287,7 +322,8 @@ SeriesPlan make_plan(const EtaQuotient& quotient, long N, int threads, Coefficie
   // 2^62, a GMP integer per coefficient (header, limbs, allocator overhead).
   const double len = static_cast<double>(N) + 1;
   const double k = static_cast<double>(plan.primes.size());
-  const double active = std::min<double>(plan.threads, k);
+  // Spare threads work inside a prime (parallel_for), so count every thread.
+  const double active = plan.threads;
   const double bits = static_cast<double>(fmpz_bits(plan.bound.bound.get())) + 1;
   const double fft_points = std::exp2(std::ceil(std::log2(len)));
   double bytes = active * (16.0 * fft_points + 24.0 * len + 16e6) + 8.0 * k * len + 8.0 * len;
@@ -375,13 +411,16 @@ IntegerSeries compute_series(const SeriesPlan& plan, const SeriesProgress& progr
   std::atomic<size_t> next{0};
   std::exception_ptr failure;
   std::mutex failure_mutex;
+  // With fewer primes than threads (e.g. c_7 to 10^7: one prime), the spare
+  // threads work inside a prime.
+  const int inner = k < static_cast<size_t>(plan.threads) ? plan.threads / static_cast<int>(k) : 1;
   auto worker = [&]() {
     try {
       for (size_t i = next++; i < k; i = next++) {
         NTL::zz_pPush push(NTL::INIT_FFT, plan.prime_indices[i]);
         CIRCLET_ASSERT(static_cast<ulong>(zz_p::modulus()) == plan.primes[i], "FFT prime changed");
         eta_series_mod_current(plan.quotient, N, residues.data() + i, static_cast<long>(k),
-                               [&, i](double f) { report(i, f); });
+                               [&, i](double f) { report(i, f); }, inner);
       }
     } catch (...) {
       std::lock_guard<std::mutex> lock(failure_mutex);
