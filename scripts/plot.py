@@ -492,14 +492,23 @@ def remainder_setup(table):
 
 
 def remainder_series(table, fam, A, B):
-    """n, X, E(n) as doubles, and the normalised values E/X^{(w−1)/2}, E/X^{w/2}."""
-    n = [int(float(v)) for v in table.col("n")]
+    """The progression variable, X, E as doubles, and the normalised values E/X^{(w−1)/2}, E/X^{w/2}.
+
+    With --ap the commands write k (the progression variable) and n = A·k + B;
+    the plot's variable is then k, shown as n in the labels F(An+B)."""
     r = family_rank(fam) if fam else None
+    if table.find("k") and table.find("n"):
+        var = [int(float(v)) for v in table.col("k")]
+        args = [int(float(v)) for v in table.col("n")]
+    else:
+        var = [int(float(v)) for v in table.col("n")]
+        args = [A * k + B for k in var]
+    n = var
     if table.find("X"):
         X = floats(table.col("X"))
     else:
         delta = family_shift(fam)
-        X = [float(A * k + B + delta) for k in n]
+        X = [float(a + delta) for a in args]
     ename = table.find("remainder", "E", "E_n", "remainder_mid", "error")
     E = [parse_ball(v)[0] for v in table.col(ename)] if ename else None
     dname = table.find("E_deligne", "normalised_deligne", "deligne", "E_over_deligne", "remainder_deligne",

@@ -173,11 +173,12 @@ TEST_CASE("plot.py remainder from a `circlet main --to` table (n, count, main, r
   REQUIRE(!tmp.path.empty());
   const std::string& d = tmp.path;
   // c9: weight 4 (exact main terms, fast), rank 8, X = n + 10/3 (MATH.md §2).
-  REQUIRE(run(kCirclet + " main c9 --to 300 -o " + d + "/main.csv >/dev/null 2>&1") == 0);
+  // Along the progression 2n+1: the table has k (the progression variable) and n = 2k+1.
+  REQUIRE(run(kCirclet + " main c9 --ap 2,1 --to 150 -o " + d + "/main.csv >/dev/null 2>&1") == 0);
   std::string svg = render_both("remainder", d + "/main.csv", "", d, "remainder");
-  CHECK(svg_has_label(svg, "$E(n)\\,/\\,X^{(w-1)/2}$,  $X = n + \\Delta$"));
-  CHECK(svg.find("weight $w = 4$") != std::string::npos);
-  CHECK(svg.find("circlet main c9 --to 300") != std::string::npos);
+  CHECK(svg_has_label(svg, "$E(n)\\,/\\,X^{(w-1)/2}$,  $X = 2n+1 + \\Delta$"));
+  CHECK(svg.find("Normalised remainder of $c_{9}(2n+1)$ (weight $w = 4$), $n = 0,\\dots,150$") != std::string::npos);
+  CHECK(svg.find("circlet main c9 --ap 2,1 --to 150") != std::string::npos);
 }
 
 TEST_CASE("plot.py arcs: partial sums against K with the main-term ball and the tail bound", "[plots]") {
