@@ -244,3 +244,25 @@ TEST_CASE("main term: |count − M| is below a generous multiple of X^{w/2} (san
       CHECK(worst < 5.0);  // observed ≤ 0.14 (c6) for n ≤ 5000
     }
 }
+
+TEST_CASE("main term: weight 1 carries Siegel's factor 1/2 (sq2 = r_2, c_3 on average)", "[mainterm][main_term]") {
+  // x² + y² is alone in its genus, so Siegel's formula gives r_2 exactly:
+  // r_2(n) = 4 Σ_{d|n} χ_{−4}(d) (Jacobi; Grosswald 1985, ch. 2), counted directly here.
+  std::vector<int64_t> r = squares_counts(2, 500);
+  QuadraticModel m = model_of("sq2");
+  for (long n = 1; n <= 500; ++n) {
+    INFO("n = " << n);
+    CHECK(exact_main(m, n) == Fmpq(r[n]));
+  }
+  // c_3: the genus has more classes, so only the average matches: Σ c_3 / Σ M over 1000 ≤ n ≤ 3000.
+  IntegerSeries c = family_series(Family::parse("c3"), 3000);
+  QuadraticModel m3 = model_of("c3");
+  Fmpq sc(0), sm(0);
+  for (long n = 1000; n <= 3000; ++n) {
+    fmpq_add(sc.get(), sc.get(), Fmpq(c.value(n)).get());
+    fmpq_add(sm.get(), sm.get(), exact_main(m3, n).get());
+  }
+  double ratio = fmpq_get_d(sc.get()) / fmpq_get_d(sm.get());
+  INFO("sum c_3 / sum M = " << ratio);
+  CHECK(std::fabs(ratio - 1) < 0.05);
+}

@@ -177,6 +177,12 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
       fmpq_div_fmpz(M.get(), M.get(), fac.get());
       fmpq_div(M.get(), M.get(), R.get());
       fmpq_div(M.get(), M.get(), P.cofactor.get());
+      // r = 2: Siegel's factor ε = 1/2 (binary forms; the product over p then
+      // converges only conditionally and counts each representation twice).
+      // C. L. Siegel, "Über die analytische Theorie der quadratischen Formen",
+      // Ann. of Math. 36 (1935), 527–606, Hauptsatz with ε = 1/2 for m = n + 1
+      // (quoted from memory); the tests check M = r_2 for sq2.
+      if (s == 1) fmpq_div_2exp(M.get(), M.get(), 1);
     } else {
       // M = X^k 4^k k! R C / ((2k)! Z f g)
       fmpq_pow_si(M.get(), P.X.get(), (slong)s);

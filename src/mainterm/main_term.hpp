@@ -10,6 +10,7 @@
 //      Π_p β_p = C / L(w, χ),   C = Π_{p∈S} β_p / (1 − χ(p) p^{−w}).
 //    With L(w, χ) = R π^w / sqrt(f) and det S = f g², the π's and roots cancel:
 //      M(n) = X^{w−1} · C / ((w−1)! · R · g)                     (exact rational)
+//    times Siegel's factor 1/2 when r = 2 (weight 1: c_3, sq2, sc4, sc5).
 //  * r odd, k = (r−1)/2, χ = χ_{d0}, d0 = disc. of Q(sqrt((−1)^k det S · X)) (depends on n):
 //      Π_p β_p = C · L(k, χ)/ζ(2k),   C = Π_{p∈S} β_p (1 − χ(p)p^{−k}) / (1 − p^{−2k}).
 //    With L(k, χ) = R π^k/sqrt(f), ζ(2k) = Z π^{2k}, Γ(k + 1/2) = (2k)! sqrt(π)/(4^k k!)
