@@ -42,6 +42,7 @@ import matplotlib
 if "ipykernel" not in sys.modules:  # notebooks keep their inline backend; files are the same
     matplotlib.use("Agg")
 import matplotlib.pyplot as plt  # noqa: E402
+from matplotlib.ticker import MaxNLocator  # noqa: E402
 
 FIGSIZE = (8.0, 6.0)  # inches
 DPI = 100
@@ -337,6 +338,7 @@ def caption(fig, *provs):
 
 def _label(ax, xlabel, ylabel):
     """Axis labels in mathtext; the SVG gets them as XML comments (backend_svg) and as gids."""
+    ax.xaxis.set_major_locator(MaxNLocator(integer=True))  # n and K are integers
     xl = ax.set_xlabel(xlabel)
     yl = ax.set_ylabel(ylabel)
     xl.set_gid("xlabel")
