@@ -266,3 +266,18 @@ TEST_CASE("main term: weight 1 carries Siegel's factor 1/2 (sq2 = r_2, c_3 on av
   INFO("sum c_3 / sum M = " << ratio);
   CHECK(std::fabs(ratio - 1) < 0.05);
 }
+
+TEST_CASE("main term: sc_7 (weight 3/2, with β_2 = 0 classes) equals the count, n ≤ 400", "[mainterm][main_term]") {
+  // Observed with this code (no theorem cited): the cusp part vanishes here as for c_4.
+  // It exercises the 2-adic zero densities (MATH.md §4: sc_7 has classes with β_2 = 0).
+  IntegerSeries c = family_series(Family::parse("sc7"), 400);
+  QuadraticModel m = model_of("sc7");
+  int zeros = 0;
+  for (long n = 0; n <= 400; ++n) {
+    Fmpq M = exact_main(m, n);
+    INFO("n = " << n);
+    CHECK(M == Fmpq(c.value(n)));
+    zeros += M.is_zero();
+  }
+  CHECK(zeros > 0);
+}
