@@ -7,6 +7,8 @@
 #include "cli/command.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
+#include "circlet/version.hpp"
+#include "progression/certificate.hpp"
 #include "progression/verify.hpp"
 
 namespace circlet::cli {
@@ -26,6 +28,18 @@ void run_verify(const VerifyCliOptions& o) {
   } catch (const nlohmann::json::exception& e) {
     throw UserError(o.path + " is not JSON: " + e.what());
   }
+  // Not a certificate at all, or one from another program version: bad input (status 2),
+  // before any claim is checked. Edited claims are a failed verification (status 1).
+  if (!j.is_object() || !j.contains("format") || j["format"] != kCertificateFormat)
+    throw UserError(o.path + " is not a certificate (no \"format\": \"" + std::string(kCertificateFormat) + "\")");
+  if (!j.contains("provenance") || !j["provenance"].is_object() || !j["provenance"].contains("version") ||
+      j["provenance"]["version"] != kVersion)
+    throw UserError(o.path + ": certificate written by circlet version " +
+                    (j.contains("provenance") && j["provenance"].is_object() && j["provenance"].contains("version")
+                         ? (j["provenance"]["version"].is_string() ? j["provenance"]["version"].get<std::string>()
+                                                                   : j["provenance"]["version"].dump())
+                         : std::string("(none)")) +
+                    ", this is version " + kVersion + "; re-run certify with this version");
   VerifyReport r = verify_certificate(j);
   if (o.verbose)
     for (const auto& s : r.checked) std::cout << "ok: " << s << "\n";
