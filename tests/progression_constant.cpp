@@ -91,3 +91,23 @@ TEST_CASE("proportional X with a p-adic zero of X at a finite prime is not CONST
   CHECK(c.verdict == Verdict::NonConvergent);
   CHECK(c.distinguishing_prime == 17);
 }
+
+// With X_G = λ·X_F and a square discriminant product, ρ_q = 1 for every q outside
+// the finite primes: the tail is exactly 1, and ρ_17 alone separates the classes.
+TEST_CASE("proportional pairs get an exact tail; removing the argument is rejected", "[progression][constant][verify]") {
+  ProgressionPair pair(Family::parse("c9"), Progression{34, 25}, Family::parse("sc17"), Progression{102, 73});
+  Certificate c = certify_pair(pair, CertifyOptions{});
+  REQUIRE(c.verdict == Verdict::NonConvergent);
+  CHECK(c.tail_exact);
+  CHECK(c.Q == 17);
+  nlohmann::json j = certificate_to_json(c);
+  VerifyReport r = verify_certificate(j);
+  for (const auto& f : r.failures) UNSCOPED_INFO(f);
+  CHECK(r.ok());
+  j.erase("tail_route");
+  VerifyReport bad = verify_certificate(j);
+  std::string all;
+  for (const auto& f : bad.failures) all += f + "\n";
+  CHECK_FALSE(bad.ok());
+  CHECK_THAT(all, Catch::Contains("tail.log_bound: stored"));
+}

@@ -104,6 +104,14 @@ nlohmann::json certificate_to_json(const Certificate& c) {
                          {"n0", c.n0.str()},
                          {"for_n_ge_n0", ball_to_json(c.power_from_n0)},
                          {"note", "(X_F(n)/X_G(n))^{w-1} is monotone in n and tends to (A/A')^{w-1}"}};
+    if (c.tail_exact) {
+      j["tail_route"] = "proportional";
+      j["lambda"] = c.lambda.str();
+      j["discriminant_product"] = c.discriminant_product.str();
+      j["tail_argument"] = "X_G = lambda X_F for all n and discriminant_product is a rational square, so rho_q = 1 for "
+                           "every prime q outside {2, 3} and the primes of t_F t_G lambda, all of which are <= Q: the "
+                           "product over q > Q is exactly 1";
+    }
     j["tail"] = {{"Q", c.Q},
                  {"explicit_primes_up_to", c.q2},
                  {"log_bound", ball_to_json(c.tail_log)},

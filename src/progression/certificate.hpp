@@ -56,6 +56,7 @@ struct Certificate {
   Arb power_limit;         // (A/A')^{w−1}
   Fmpz n0;
   Arb power_from_n0;       // ⊇ (X_F(n)/X_G(n))^{w−1} for all n ≥ n0
+  bool tail_exact = false; // proportional route: ρ_q = 1 for every q > Q (Q ≥ every finite prime), S = 0
   Arb tail_log;            // S: |log Π_{q>Q} ρ_q| ≤ S for every n
   Arb tail;                // ⊇ [e^{−S}, e^{S}]
   bool disjoint = false;

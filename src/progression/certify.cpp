@@ -173,7 +173,9 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
 
   // Route 1': proportional X and a square discriminant product.
   Fmpq lambda;
+  ulong exact_tail_from = 0;  // proportional route: ρ_q = 1 for all q > this (0: no such argument)
   if (x_proportional(pair, &lambda) && fmpq_is_square(discriminant_product(pair, lambda))) {
+    exact_tail_from = constant_route_primes(pair, lambda).back();
     bool all_constant = true;
     std::vector<ClassFactor> classes;
     std::vector<std::pair<ulong, Fmpq>> rhos;
@@ -235,7 +237,8 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
   std::vector<PrimeData> primes;
   size_t best = 0;
   bool any_varies = false;
-  for (ulong p = 2; p <= opt.Q_max; p = n_nextprime(p, 1)) {
+  const ulong search_limit = std::max<ulong>(opt.Q_max, exact_tail_from);
+  for (ulong p = 2; p <= search_limit; p = n_nextprime(p, 1)) {
     primes.push_back(prime_data(pair, p));
     const PrimeData& d = primes.back();
     if (d.classes.empty()) {
@@ -250,7 +253,17 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
     // Try Q = p.
     c.Q = p;
     c.q2 = opt.q2;
-    cached_tail(c.tail_log, c.tail, c.rank, c.Q, c.q2, prec);
+    if (exact_tail_from != 0 && p >= exact_tail_from) {
+      // ρ_q = 1 for every q > Q (route 1' argument in certify.hpp): the tail is exactly 1.
+      c.tail_exact = true;
+      c.lambda = lambda;
+      c.discriminant_product = discriminant_product(pair, lambda);
+      arb_zero(c.tail_log);
+      arb_one(c.tail);
+    } else {
+      c.tail_exact = false;
+      cached_tail(c.tail_log, c.tail, c.rank, c.Q, c.q2, prec);
+    }
     if (!arb_is_finite(c.tail_log)) continue;
     c.distinguishing_prime = primes[best].p;
     c.classes.assign(2, CertClass{});

@@ -109,7 +109,24 @@ void verify_nonconvergent(Ctx& ctx, const nlohmann::json& j, const ProgressionPa
     return;
   }
   Arb S, T;
-  {
+  if (j.value("tail_route", std::string()) == "proportional") {
+    Fmpq lambda;
+    if (!x_proportional(pair, &lambda)) {
+      ctx.fail("tail_route proportional: X_G is not a constant multiple of X_F");
+      return;
+    }
+    if (!fmpq_is_square(discriminant_product(pair, lambda))) {
+      ctx.fail("tail_route proportional: the discriminant product is not a square");
+      return;
+    }
+    if (constant_route_primes(pair, lambda).back() > Q) {
+      ctx.fail("tail_route proportional: a prime where rho_q may differ from 1 exceeds Q");
+      return;
+    }
+    arb_zero(S);
+    arb_one(T);
+    ctx.ok("tail exactly 1: X_G = " + lambda.str() + " X_F, square discriminant product, finite primes <= Q");
+  } else {
     // Shared between the certificates of one process (a scan with --verify).
     static std::map<std::tuple<int, ulong, ulong, slong>, std::pair<Arb, Arb>> cache;
     auto key = std::make_tuple(rank, Q, q2, prec);
