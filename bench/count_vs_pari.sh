@@ -2,11 +2,14 @@
 # Times `circlet count` on the README's performance targets and PARI/GP on the
 # same eta-quotient series, in one run. Run it once, on a quiet machine:
 #   bench/count_vs_pari.sh [BUILD_DIR]        (default: build)
+# CIRCLET_BENCH_NO_BUILD=1 skips the build step (use the binaries as they are).
 # Prints one line per measurement: wall seconds, user seconds, peak RSS (MB).
 set -euo pipefail
 here="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 build="${1:-$here/build}"
-cmake --build "$build" --target circlet benchmarks -j2 >/dev/null
+if [ -z "${CIRCLET_BENCH_NO_BUILD:-}" ]; then
+  cmake --build "$build" --target circlet benchmarks -j2 >/dev/null
+fi
 circlet="$build/circlet"
 work="$(mktemp -d)"
 trap 'rm -rf "$work"' EXIT
