@@ -633,11 +633,11 @@ def plot_arcs(table, out, main_json=None):
     pk = [(kk, m, r) for kk, (m, r) in zip(k, partial) if m is not None]
     ax.errorbar([a for a, _, _ in pk], [m for _, m, _ in pk], yerr=[r for _, _, r in pk], fmt="o-", ms=3, lw=0.8,
                 color="tab:blue", label=r"partial sum $S_K = \sigma_\infty(X)\sum_{k \leq K} A_k(n)/k^{w}$")
-    if tail:
-        lo = [m - r - t for (_, m, r), t in zip(pk, tail)]
-        hi = [m + r + t for (_, m, r), t in zip(pk, tail)]
-        ax.fill_between([a for a, _, _ in pk], lo, hi, color="tab:blue", alpha=0.12, lw=0,
-                        label=r"$S_K \pm T_K$ (tail bound)")
+    tail_at = {kk: t for kk, t in zip(k, tail or []) if t is not None and math.isfinite(t)}
+    band = [(a, m - r - tail_at[a], m + r + tail_at[a]) for a, m, r in pk if a in tail_at]
+    if band:
+        ax.fill_between([a for a, _, _ in band], [lo for _, lo, _ in band], [hi for _, _, hi in band],
+                        color="tab:blue", alpha=0.12, lw=0, label=r"$S_K \pm T_K$ (tail bound)")
     if main:
         mm, mr = main
         ax.axhspan(mm - mr, mm + mr, color="tab:orange", alpha=0.35, lw=0)
@@ -652,10 +652,12 @@ def plot_arcs(table, out, main_json=None):
         d = [(a, abs(m - main[0])) for a, m, _ in pk if abs(m - main[0]) > 0]
         if d:
             ax2.semilogy(*zip(*d), "o", ms=3, color="tab:blue", label=r"$|S_K - M(n)|$ (midpoints)")
-    if tail:
-        tk = [(a, t) for a, t in zip(k, tail) if t is not None and t > 0]
-        if tk:
-            ax2.semilogy(*zip(*tk), "-", color="tab:red", lw=1.2, label=r"tail bound $T_K \geq |\sum_{k>K}|$")
+    tk = sorted((a, t) for a, t in tail_at.items() if t > 0)
+    if tk:
+        ax2.semilogy(*zip(*tk), "-", color="tab:red", lw=1.2, label=r"tail bound $T_K \geq |\sum_{k>K}|$")
+    else:
+        ax2.text(0.5, 0.5, "no finite tail bound (the series does not converge absolutely at this weight)",
+                 transform=ax2.transAxes, ha="center", va="center", fontsize=9, color="tab:red")
     ax2.set_yscale("log")
     ax2.legend(loc="upper right", fontsize=8)
     xl = ax2.set_xlabel(r"$K$ (largest denominator $k$ of the major arcs)")

@@ -200,6 +200,19 @@ TEST_CASE("plot.py arcs: partial sums against K with the main-term ball and the 
   CHECK(svg.find("circlet arcs c9") != std::string::npos);
 }
 
+TEST_CASE("plot.py arcs: weight 3/2 (sc7), where the tail bound is infinite, still renders and says so", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("arcs");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " arcs sc7 --at 100 --upto 10 -o " + d + "/arcs.csv >/dev/null 2>&1") == 0);
+  REQUIRE(slurp(d + "/arcs.csv").find(",inf,") != std::string::npos);  // the case this test is about
+  std::string svg = render_both("arcs", d + "/arcs.csv", "", d, "arcs");
+  CHECK(svg.find("no finite tail bound") != std::string::npos);
+  CHECK(svg_has_label(svg, "$S_K$"));
+}
+
 TEST_CASE("plot.py reads the provenance line and exact numbers of circlet output", "[plots]") {
   CIRCLET_NEED_PYTHON();
   const TempDir tmp;
