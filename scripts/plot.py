@@ -430,7 +430,7 @@ def cert_bands(cert):
             bands.append((r"limit on $n \equiv %d\ (\mathrm{mod}\ %d)$" % (r, M), mid - rad, mid + rad, r, M))
     elif verdict == "CONSTANT":
         mid, rad = parse_ball(cert["constant"]["interval"])
-        bands.append(("certified limit", mid - rad, mid + rad, None, None))
+        bands.append(("limit", mid - rad, mid + rad, None, None))
     return bands
 
 
@@ -473,6 +473,16 @@ def plot_ratio(table, out, cert=None):
         ax.axhspan(lo, hi, color=c, alpha=0.25, lw=0)
         ax.axhline((lo + hi) / 2, color=c, lw=1.0, ls="--", label=label + " (certified)")
     nmin, nmax = (min(n), max(n)) if n else (0, 0)
+    if bands:
+        # Frame the certified bands and the later points (n ≥ nmax/5); a few
+        # small-n ratios far away would otherwise flatten the picture.
+        late = sorted(v for k, v in pts if k >= nmax / 5)
+        if late:
+            late = late[len(late) // 50: len(late) - len(late) // 50] or late
+        lo = min([b[1] for b in bands] + late[:1])
+        hi = max([b[2] for b in bands] + late[-1:])
+        pad = 0.15 * (hi - lo if hi > lo else abs(hi) + 1.0)
+        ax.set_ylim(lo - pad, hi + pad)
     _label(ax, r"$n$", r"$R(n) = %s\,/\,%s$" % (ftex, gtex))
     ax.set_title(r"Ratio $%s\,/\,%s$ along the progressions, $n = %d,\dots,%d$" % (ftex, gtex, nmin, nmax))
     leg = ax.legend(loc="best", fontsize=8, title=("certificate: %s" % cert.get("verdict", "?")) if cert else None)
