@@ -112,3 +112,18 @@ TEST_CASE("scan --verify re-checks every certificate and all pass", "[scan][veri
   CHECK(s["certificates_verified"] == 144);
   CHECK(s["certificates_failing_verification"] == 0);
 }
+
+// A CONSTANT row whose constant is an integer is listed as a candidate and
+// compared on exact counts up to n = 10^4 (here identical sequences: k = 1).
+TEST_CASE("integer CONSTANT rows are listed as candidates with an exact-count comparison", "[scan][summary]") {
+  ScanSettings s;
+  ScanContext ctx(s);
+  nlohmann::json row{{"job", 0}, {"t", 6},  {"F", "c6"}, {"G", "c6"},         {"A", 2},
+                     {"B", 1},   {"A2", 2}, {"B2", 1},   {"verdict", "CONSTANT"}, {"constant", "1"},
+                     {"contains_integer", true}};
+  nlohmann::json summary = scan_summary({row}, &ctx);
+  REQUIRE(summary["candidates"].size() == 1);
+  CHECK(summary["candidates"][0]["exact_compare_to_10000"] == "proportional k=1");
+  std::string text = scan_summary_text(nlohmann::json{{"t_lo", 6}, {"t_hi", 6}, {"modulus", 2}}, "0/1", summary);
+  CHECK_THAT(text, Catch::Contains("*** CANDIDATES") && Catch::Contains("c6(2n+1) vs c6(2n+1)"));
+}
