@@ -477,8 +477,6 @@ def plot_ratio(table, out, cert=None):
         # Frame the certified bands and the later points (n ≥ nmax/5); a few
         # small-n ratios far away would otherwise flatten the picture.
         late = sorted(v for k, v in pts if k >= nmax / 5)
-        if late:
-            late = late[len(late) // 50: len(late) - len(late) // 50] or late
         lo = min([b[1] for b in bands] + late[:1])
         hi = max([b[2] for b in bands] + late[-1:])
         pad = 0.15 * (hi - lo if hi > lo else abs(hi) + 1.0)
