@@ -15,8 +15,12 @@
 //     all give the same ρ_p, then ρ_p is constant for every p, and since
 //     (X_F/X_G)^{w−1} = (A/A')^{w−1} exactly, M_F/M_G = L for every n with
 //     L² = (det S_G/det S_F)(A/A')^{r−2} Π_{p∈P} ρ_p² rational: whether L is an
-//     integer is decided exactly. (If X_F, X_G are not proportional, ρ_p varies
-//     at infinitely many p, so no CONSTANT is missed by this route.)
+//     integer is decided exactly. (If X_F, X_G are not proportional, then at the
+//     infinitely many p ∤ 2t_F t_G A A' (A'b_F − A b_G) some n has v_p(X_F) ≥ 1 =
+//     v_p(X_G) + 1 and another has both 0, and β_p(v = 1) ≠ β_p(v = 0) for a
+//     unimodular form, so ρ_p varies; if they are proportional but the
+//     discriminant product is not a square, χ_F(p) ≠ χ_G(p) at infinitely many
+//     p ∤ A, where ρ_p(v = 0) ≠ ρ_p(v = 1). So no CONSTANT pair is missed.)
 //  2. Weight ≤ 2: UNDECIDED (the tail Σ q^{1−w} does not converge absolutely and
 //     Hecke's bound does not make the cusp part o(main term)).
 //  3. For primes p = 2, 3, 5, ... ≤ Q_max: the pinned classes at p
