@@ -47,11 +47,14 @@ std::string scan_csv_header() {
 nlohmann::json scan_summary(const std::vector<nlohmann::json>& rows, ScanContext* ctx) {
   std::map<int, std::map<std::string, long>> per_t;
   std::map<std::string, long> total;
+  std::map<long, long> by_Q, by_prime;
   nlohmann::json candidates = nlohmann::json::array(), proportional = nlohmann::json::array(),
                  sub_proportional = nlohmann::json::array();
   for (const auto& r : rows) {
     std::string v = r.at("verdict").get<std::string>();
     per_t[r.at("t").get<int>()][v]++;
+    if (r.contains("Q") && r["Q"].is_number()) by_Q[r["Q"].get<long>()]++;
+    if (r.contains("prime") && r["prime"].is_number()) by_prime[r["prime"].get<long>()]++;
     total[v]++;
     std::string pair = r["F"].get<std::string>() + "(" + std::to_string(r["A"].get<long>()) + "n+" +
                        std::to_string(r["B"].get<long>()) + ") vs " + r["G"].get<std::string>() + "(" +
@@ -81,7 +84,12 @@ nlohmann::json scan_summary(const std::vector<nlohmann::json>& rows, ScanContext
   for (const auto& r : rows)
     if (r.contains("verified")) (r["verified"] == true ? verified : verify_failed)++;
   for (const auto& [t, m] : per_t) pt.push_back({{"t", t}, {"verdicts", m}});
+  nlohmann::json q = nlohmann::json::array(), pr = nlohmann::json::array();
+  for (const auto& [k, n] : by_Q) q.push_back({{"Q", k}, {"pairs", n}});
+  for (const auto& [k, n] : by_prime) pr.push_back({{"prime", k}, {"pairs", n}});
   return {{"jobs", rows.size()},
+          {"non_convergent_by_Q", q},
+          {"non_convergent_by_distinguishing_prime", pr},
           {"certificates_verified", verified},
           {"certificates_failing_verification", verify_failed},
           {"verdicts", total},
@@ -109,6 +117,13 @@ std::string scan_summary_text(const nlohmann::json& header, const std::string& s
   if (s["certificates_verified"].get<long>() + s["certificates_failing_verification"].get<long>() > 0)
     o << "certificates re-checked by circlet verify's route: " << s["certificates_verified"] << " verified, "
       << s["certificates_failing_verification"] << " FAILED\n";
+  if (!s["non_convergent_by_Q"].empty()) {
+    o << "NON-CONVERGENT pairs by Q (largest prime pinned):";
+    for (const auto& e : s["non_convergent_by_Q"]) o << " Q=" << e["Q"] << ": " << e["pairs"] << ";";
+    o << "\nNON-CONVERGENT pairs by the prime whose rho separates the classes:";
+    for (const auto& e : s["non_convergent_by_distinguishing_prime"]) o << " p=" << e["prime"] << ": " << e["pairs"] << ";";
+    o << "\n";
+  }
   if (s["candidates"].empty()) {
     o << "CANDIDATES (CONSTANT with an integer in the interval): none\n";
   } else {
