@@ -7,6 +7,7 @@
 #include <catch2/catch.hpp>
 
 #include "mainterm/main_term.hpp"
+#include "quadratic/local_density.hpp"
 #include "quadratic/model.hpp"
 #include "series/eta_series.hpp"
 
@@ -133,8 +134,30 @@ TEST_CASE("a prime factor of X beyond the cut-off is taken exactly", "[arcs][ter
   std::vector<Fmpq> first(coeffs.begin(), coeffs.begin() + 25);
   ArcTailBound T = arc_tail_bound(model, n, first, 128);
   CHECK(T.prime_cutoff == 100000);
-  CHECK(std::find(T.special_primes.begin(), T.special_primes.end(), 1000003UL) != T.special_primes.end());
+  CHECK(std::find(T.special_primes.begin(), T.special_primes.end(), Fmpz(1000003)) != T.special_primes.end());
   Arb actual;
   arb_set_fmpq(actual.get(), abs_tail(coeffs, 25, 100).get(), 128);
   CHECK(arb_le(actual.get(), T.coefficient_tail.get()));
+}
+
+TEST_CASE("arcs and main terms handle prime factors of X beyond a machine word", "[arcs][terms][containment]") {
+  // n = 10^27: X = n + 2 for c7 has the prime factor 1312335958005249343832021 (> 2^64),
+  // seen in `circlet main c7 --at 10^27 --explain`; c6 (odd rank) takes the ball route.
+  const Fmpz n = Fmpz::from_str("1000000000000000000000000000");
+  for (const char* f : {"c7", "c6", "c9"}) {
+    const auto model = quadratic_model(Family::parse(f));
+    MainTerm M = main_term(model, n, 128);
+    ArcExpansion e = arc_expansion(model, n, 30, 128);
+    INFO(f << " enclosure=" << e.enclosure.str() << " M=" << M.ball.str());
+    CHECK(arb_is_finite(M.ball.get()));
+    CHECK(arb_overlaps(e.enclosure.get(), M.ball.get()));
+    if (M.exact) {
+      Arb m;
+      arb_set_fmpq(m.get(), M.exact->get(), 128);
+      CHECK(arb_contains(e.enclosure.get(), m.get()));
+    }
+  }
+  const auto c7 = quadratic_model(Family::parse("c7"));
+  const auto special = local_density_special_primes(c7, n);
+  CHECK(std::find(special.begin(), special.end(), Fmpz::from_str("1312335958005249343832021")) != special.end());
 }

@@ -184,3 +184,16 @@ TEST_CASE("generalised Bernoulli numbers: the 128-bit and the big-integer sums a
     }
   }
 }
+
+TEST_CASE("the Kronecker symbol at a prime agrees with FLINT's for discriminants beyond a word",
+          "[mainterm][dirichlet]") {
+  // Reference: fmpz_kronecker (FLINT), an independent implementation.
+  Fmpz big = Fmpz::from_str("-1312335958005249343832021123456789");
+  for (const Fmpz& d : {big, Fmpz(-7), Fmpz(5), Fmpz(-4), Fmpz(8), Fmpz::from_str("98765432109876543210987")}) {
+    n_primes_t it;
+    n_primes_init(it);
+    for (ulong p = n_primes_next(it); p < 2000; p = n_primes_next(it))
+      CHECK(kronecker_symbol_prime(d, p) == fmpz_kronecker(d.get(), Fmpz::from_ui(p).get()));
+    n_primes_clear(it);
+  }
+}

@@ -22,14 +22,15 @@ namespace {
 class PieceCache {
  public:
   PieceCache(const QuadraticModel& model, const Fmpz& n) : model_(model), n_(n) {}
-  const Fmpq& piece(ulong p, int j) {
+  const Fmpq& piece(ulong p, int j) { return piece(Fmpz::from_ui(p), j); }
+  const Fmpq& piece(const Fmpz& p, int j) {
     auto key = std::make_pair(p, j);
     auto it = cache_.find(key);
     if (it != cache_.end()) return it->second;
     return cache_.emplace(key, local_arc_piece(model_, n_, p, j)).first->second;
   }
   // Σ_{j ≥ 0} |f(p^j)|, exact: f(p^j) = 0 beyond the stable exponent.
-  Fmpq abs_sum(ulong p) {
+  Fmpq abs_sum(const Fmpz& p) {
     const int J = local_density_stable_exponent(model_, n_, p);
     Fmpq s(1), a;
     for (int j = 1; j <= J + 1; ++j) {
@@ -42,7 +43,7 @@ class PieceCache {
  private:
   const QuadraticModel& model_;
   const Fmpz& n_;
-  std::map<std::pair<ulong, int>, Fmpq> cache_;
+  std::map<std::pair<Fmpz, int>, Fmpq> cache_;
 };
 
 std::vector<Fmpq> coefficients_with(PieceCache& cache, ulong K) {
@@ -56,30 +57,6 @@ std::vector<Fmpq> coefficients_with(PieceCache& cache, ulong K) {
       fmpq_mul(f.get(), f.get(), cache.piece(fac.p[i], static_cast<int>(fac.exp[i])).get());
     out[k - 1] = f;
   }
-  return out;
-}
-
-// Primes dividing the numerator or the denominator of X, together with the
-// structural primes up to `limit` and p = 2: the primes where the good-prime
-// closed form |f(p)| = p^{−s}, f(p^j) = 0 (j ≥ 2) is not used.
-std::set<ulong> special_primes(const QuadraticModel& model, const Fmpq& X) {
-  std::set<ulong> out{2};
-  for (const fmpz* part : {fmpq_numref(X.get()), fmpq_denref(X.get())}) {
-    fmpz_factor_t f;
-    fmpz_factor_init(f);
-    Fmpz a;
-    fmpz_abs(a.get(), part);
-    if (!fmpz_is_zero(a.get())) fmpz_factor(f, a.get());
-    for (slong i = 0; i < f->num; ++i) {
-      CIRCLET_ASSERT(fmpz_abs_fits_ui(f->p + i), "prime factor of X too large");
-      out.insert(fmpz_get_ui(f->p + i));
-    }
-    fmpz_factor_clear(f);
-  }
-  // Structural primes divide 2t (or are 2 for sq_S).
-  const ulong t = static_cast<ulong>(model.family.t);
-  for (ulong p = 2; p <= std::max<ulong>(t, 2); ++p)
-    if (n_is_prime(p) && is_structural_prime(model, p)) out.insert(p);
   return out;
 }
 
@@ -107,7 +84,10 @@ ArcTailBound arc_tail_bound(const QuadraticModel& model, const Fmpz& n, const st
     return out;
   }
   const Fmpq X = model.X(n);
-  const std::set<ulong> special = special_primes(model, X);
+  // The primes where the good-prime closed form |f(p)| = p^{−s}, f(p^j) = 0 (j ≥ 2)
+  // is not used: p | 2t and p | X (numerator or denominator).
+  const std::vector<Fmpz> special_list = local_density_special_primes(model, n);
+  const std::set<Fmpz> special(special_list.begin(), special_list.end());
   PieceCache cache(model, n);
   const slong wp = prec + 30;
 
@@ -118,8 +98,8 @@ ArcTailBound arc_tail_bound(const QuadraticModel& model, const Fmpz& n, const st
   n_primes_t it;
   n_primes_init(it);
   for (ulong p = n_primes_next(it); p <= P0; p = n_primes_next(it)) {
-    if (p <= K || special.count(p)) {
-      arb_set_fmpq(F.get(), cache.abs_sum(p).get(), wp);
+    if (p <= K || special.count(Fmpz::from_ui(p))) {
+      arb_set_fmpq(F.get(), cache.abs_sum(Fmpz::from_ui(p)).get(), wp);
     } else {
       arb_ui_pow_ui(term.get(), p, static_cast<ulong>(s), wp);
       arb_inv(term.get(), term.get(), wp);
@@ -128,8 +108,9 @@ ArcTailBound arc_tail_bound(const QuadraticModel& model, const Fmpz& n, const st
     arb_mul(E.get(), E.get(), F.get(), wp);
   }
   n_primes_clear(it);
-  for (ulong p : special)
-    if (p > P0) {
+  const Fmpz P0z = Fmpz::from_ui(P0), Kz = Fmpz::from_ui(K);
+  for (const Fmpz& p : special)
+    if (P0z < p) {
       out.special_primes.push_back(p);
       arb_set_fmpq(F.get(), cache.abs_sum(p).get(), wp);
       arb_mul(E.get(), E.get(), F.get(), wp);
@@ -156,8 +137,8 @@ ArcTailBound arc_tail_bound(const QuadraticModel& model, const Fmpz& n, const st
   if (arf_sgn(up) < 0) arf_zero(up);  // cannot happen mathematically; keep the bound non-negative
   arb_set_arf(out.coefficient_tail.get(), up);
   arf_clear(up);
-  for (ulong p : special)
-    if (p > K && p <= P0) out.special_primes.push_back(p);
+  for (const Fmpz& p : special)
+    if (Kz < p && !(P0z < p)) out.special_primes.push_back(p);
   std::sort(out.special_primes.begin(), out.special_primes.end());
   out.method = "Euler product of |A_k/k^w| minus the partial sum: exact local factors at p <= K and at "
                "primes dividing 2tX, factors 1 + p^-" + std::to_string(s) + " at good primes up to " +

@@ -44,7 +44,7 @@ struct ArcTailBound {
   Arb euler_product;     // a ball containing the bound E ≥ Σ_{k≥1} |A_k(n)/k^w| (any K' ≤ K may use it)
   ulong prime_cutoff = 0;  // P₀
   int decay = 0;           // s = ⌊r/2⌋: |f(p)| = p^{−s} at good primes
-  std::vector<ulong> special_primes;  // primes whose factors were taken exactly beyond K
+  std::vector<Fmpz> special_primes;  // primes whose factors were taken exactly beyond K
   std::string method;                 // the inequality used, in words
 };
 

@@ -80,7 +80,8 @@ nlohmann::json parts_json(const MainTerm& m, long digits) {
   j["correction_C"] = p.correction.str();
   nlohmann::json sp = nlohmann::json::array();
   for (const auto& s : p.special)
-    sp.push_back({{"p", s.p}, {"v_p(X)", s.valuation}, {"beta_p", s.beta.str()}, {"chi(p)", s.chi},
+    sp.push_back({{"p", fmpz_fits_si(s.p.get()) ? nlohmann::json(fmpz_get_si(s.p.get())) : nlohmann::json(s.p.str())},
+                  {"v_p(X)", s.valuation}, {"beta_p", s.beta.str()}, {"chi(p)", s.chi},
                   {"correction", s.correction.str()}});
   j["special_primes"] = sp;
   return j;
@@ -105,7 +106,7 @@ void print_explain(std::ostream& out, const MainTerm& m, long digits) {
       << (even ? "prod_p beta_p = C / L(w, chi)" : "prod_p beta_p = C L(k, chi) / zeta(2k)") << "\n";
   out << "  special primes        p, v_p(X), beta_p, chi(p), factor of C\n";
   for (const auto& s : p.special)
-    out << "                        " << s.p << ", " << s.valuation << ", " << s.beta.str() << ", " << s.chi << ", "
+    out << "                        " << s.p.str() << ", " << s.valuation << ", " << s.beta.str() << ", " << s.chi << ", "
         << s.correction.str() << "\n";
   out << "  C                     " << p.correction.str() << "\n";
 }

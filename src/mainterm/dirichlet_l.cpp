@@ -40,6 +40,17 @@ int kronecker_symbol(const Fmpz& d, const Fmpz& n) {
   return fmpz_kronecker(d.get(), n.get());
 }
 
+int kronecker_symbol_prime(const Fmpz& d, ulong p) {
+  if (p == 2) {
+    if (fmpz_is_even(d.get())) return 0;
+    // (d/2) = 1 for d ≡ ±1 (mod 8), −1 for d ≡ ±3 (mod 8).
+    const ulong r = fmpz_fdiv_ui(d.get(), 8);
+    return (r == 1 || r == 7) ? 1 : -1;
+  }
+  const ulong r = fmpz_fdiv_ui(d.get(), p);
+  return r == 0 ? 0 : n_jacobi_unsigned(r, p);
+}
+
 namespace {
 
 // Squarefree kernel with sign of a non-zero integer times the one of another:
@@ -261,8 +272,6 @@ ulong dirichlet_l_euler_bound(ulong k, slong prec, ulong max_P) {
 
 void dirichlet_l_euler(arb_t res, const Fmpz& d, ulong k, ulong P, slong prec) {
   CIRCLET_ASSERT(k >= 2, "dirichlet_l_euler: need k ≥ 2");
-  CIRCLET_ASSERT(fmpz_bits(d.get()) < 62, "dirichlet_l_euler: discriminant too large");
-  slong ds = fmpz_get_si(d.get());
   slong wp = prec + 2 * FLINT_BIT_COUNT(P) + 20;
   // Π_{p ≤ P} (1 − χ(p)p^{−k})^{−1} = Π p^k / (p^k − χ(p)), accumulated as a
   // quotient of two balls (each factor an exact small integer when p^k < 2^63).
@@ -272,7 +281,7 @@ void dirichlet_l_euler(arb_t res, const Fmpz& d, ulong k, ulong P, slong prec) {
   n_primes_t iter;
   n_primes_init(iter);
   for (ulong p = n_primes_next(iter); p <= P; p = n_primes_next(iter)) {
-    int c = kronecker_symbol(ds, p);
+    int c = kronecker_symbol_prime(d, p);
     if (c == 0) continue;
     ulong hi, lo = 1;
     bool small = true;

@@ -26,6 +26,9 @@ namespace circlet {
 /// Kronecker symbol (d/n) for n ≥ 1.
 int kronecker_symbol(slong d, ulong n);
 int kronecker_symbol(const Fmpz& d, const Fmpz& n);
+/// (d/p) for a prime p and an integer d of any size: d mod 8 at p = 2, the
+/// Legendre symbol of d mod p otherwise.
+int kronecker_symbol_prime(const Fmpz& d, ulong p);
 
 /// True when d is a fundamental discriminant (1 counts: the trivial character).
 bool is_fundamental_discriminant(const Fmpz& d);

@@ -18,20 +18,8 @@ namespace circlet {
 
 namespace {
 
-void add_prime_factors(std::vector<ulong>& primes, const fmpz_t x) {
-  if (fmpz_is_zero(x)) return;
-  fmpz_factor_t fac;
-  fmpz_factor_init(fac);
-  fmpz_factor(fac, x);
-  for (slong i = 0; i < fac->num; ++i) {
-    CIRCLET_ASSERT(fmpz_abs_fits_ui(fac->p + i), "main_term: prime factor beyond a word");
-    primes.push_back(fmpz_get_ui(fac->p + i));
-  }
-  fmpz_factor_clear(fac);
-}
-
-int valuation(const Fmpq& X, ulong p) {
-  Fmpz pp = Fmpz::from_ui(p), q;
+int valuation(const Fmpq& X, const Fmpz& pp) {
+  Fmpz q;
   int v = 0;
   fmpz_set(q.get(), fmpq_numref(X.get()));
   while (fmpz_divisible(q.get(), pp.get())) {
@@ -47,9 +35,9 @@ int valuation(const Fmpq& X, ulong p) {
 }
 
 // 1 − c·p^{−e} as an exact rational.
-Fmpq one_minus_chi_over(int c, ulong p, ulong e) {
+Fmpq one_minus_chi_over(int c, const Fmpz& p, ulong e) {
   Fmpz pe;
-  fmpz_ui_pow_ui(pe.get(), p, e);
+  fmpz_pow_ui(pe.get(), p.get(), e);
   Fmpq q;
   fmpq_set_si(q.get(), -c, 1);
   fmpq_div_fmpz(q.get(), q.get(), pe.get());
@@ -79,19 +67,6 @@ const EvenRankData& even_rank_data(const QuadraticModel& model) {
   data.g = discriminant_cofactor(D, data.d0);
   data.R = dirichlet_l_rational(data.d0, w);
   return cache.emplace(key, std::move(data)).first->second;
-}
-
-// The special primes: p | 2·t·d0 and p | num(X)·den(X), sorted, distinct.
-std::vector<ulong> special_primes(const QuadraticModel& model, const Fmpq& X, const Fmpz& d0) {
-  std::vector<ulong> primes = {2};
-  Fmpz t(model.family.t);
-  add_prime_factors(primes, t.get());
-  add_prime_factors(primes, d0.get());
-  add_prime_factors(primes, fmpq_numref(X.get()));
-  add_prime_factors(primes, fmpq_denref(X.get()));
-  std::sort(primes.begin(), primes.end());
-  primes.erase(std::unique(primes.begin(), primes.end()), primes.end());
-  return primes;
 }
 
 }  // namespace
@@ -135,14 +110,14 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
   }
 
   // Special primes and the correction C.
-  std::vector<ulong> primes = special_primes(model, P.X, P.discriminant);
+  const std::vector<Fmpz> primes = local_density_special_primes(model, n);
   Fmpq C(1);
-  for (ulong p : primes) {
+  for (const Fmpz& p : primes) {
     SpecialPrimeFactor sp;
     sp.p = p;
     sp.valuation = valuation(P.X, p);
     sp.beta = local_density(model, n, p);
-    sp.chi = kronecker_symbol(P.discriminant, Fmpz::from_ui(p));
+    sp.chi = kronecker_symbol(P.discriminant, p);
     if (even) {
       // β_p / (1 − χ(p) p^{−w})
       fmpq_div(sp.correction.get(), sp.beta.get(), one_minus_chi_over(sp.chi, p, s).get());
@@ -291,11 +266,11 @@ double main_term_fast(const QuadraticModel& model, const Fmpz& n, ulong euler_pr
       primes_to = euler_prime;
     }
   }
-  const slong d = fmpz_get_si(m.parts.discriminant.get());
+  const Fmpz& d = m.parts.discriminant;
   double L = 1.0;
   for (ulong p : primes) {
     if (p > euler_prime) break;
-    int c = kronecker_symbol(d, p);
+    int c = kronecker_symbol_prime(d, p);
     if (c) L /= 1.0 - c * std::pow((double)p, -(double)k);
   }
   const double X = fmpq_get_d(m.parts.X.get());

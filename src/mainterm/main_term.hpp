@@ -31,7 +31,7 @@ namespace circlet {
 
 /// One special prime's contribution.
 struct SpecialPrimeFactor {
-  ulong p = 0;
+  Fmpz p;            // may exceed a machine word (a prime factor of X)
   int valuation = 0;  // v_p(X) (negative when p divides the denominator of X)
   Fmpq beta;          // β_p(n), exact (local_density.hpp)
   int chi = 0;        // χ(p) of the L-value's character

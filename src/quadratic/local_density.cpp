@@ -651,15 +651,18 @@ std::vector<Fmpz> local_density_special_primes(const QuadraticModel& model, cons
     for (ulong p = 3; p <= static_cast<ulong>(model.family.t); ++p)
       if (model.family.t % static_cast<long>(p) == 0 && n_is_prime(p)) out.push_back(Fmpz::from_ui(p));
   }
-  fmpz_factor_t f;
-  fmpz_factor_init(f);
-  fmpz_factor(f, fmpq_numref(X.get()));
-  for (slong i = 0; i < f->num; ++i) {
-    Fmpz q;
-    fmpz_set(q.get(), f->p + i);
-    out.push_back(q);
+  // Primes of num(X) and of den(X) (den(X) divides 24, so the latter are among 2, 3).
+  for (const fmpz* part : {fmpq_numref(X.get()), fmpq_denref(X.get())}) {
+    fmpz_factor_t f;
+    fmpz_factor_init(f);
+    fmpz_factor(f, part);
+    for (slong i = 0; i < f->num; ++i) {
+      Fmpz q;
+      fmpz_set(q.get(), f->p + i);
+      out.push_back(q);
+    }
+    fmpz_factor_clear(f);
   }
-  fmpz_factor_clear(f);
   std::sort(out.begin(), out.end());
   out.erase(std::unique(out.begin(), out.end()), out.end());
   return out;

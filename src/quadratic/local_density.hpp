@@ -51,7 +51,8 @@ Fmpq local_density_level(const QuadraticModel& model, const Fmpz& n, const Fmpz&
 
 /// The finite set of primes (ascending) at which β_p(n) may differ from the generic
 /// factor: the structural primes (p | 2t; p = 2 for sq_S) and the primes dividing the
-/// numerator of X = n + Δ in lowest terms. Factors X with FLINT. Primes may exceed 64 bits
+/// numerator or the denominator of X = n + Δ in lowest terms (so also every prime of the
+/// character's discriminant, which divides det S · X up to squares). Factors X with FLINT. Primes may exceed 64 bits
 /// (X of c_t carries the factor 24 of its denominator into the numerator), so they are Fmpz;
 /// every closed-form function has an Fmpz-prime overload.
 std::vector<Fmpz> local_density_special_primes(const QuadraticModel& model, const Fmpz& n);
