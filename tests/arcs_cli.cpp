@@ -109,7 +109,7 @@ TEST_CASE("remainder --ap --json: rows, summary and the empirical fit", "[cli][r
 TEST_CASE("remainder refuses bad input with one clear line", "[cli][remainder][errors]") {
   Run a = run("remainder c7");
   CHECK(a.status == 2);
-  CHECK(a.err == "circlet: error: give --to N (all n up to N) or --ap A,B --to K\n");
+  CHECK(a.err == "circlet: error: give --to N or --ap A,B --to K\n");
   Run b = run("remainder sc3 --to 10");
   CHECK(b.status == 2);
   CHECK(b.err == "circlet: error: family sc3 has rank 1: no main term\n");

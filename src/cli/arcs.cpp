@@ -72,8 +72,7 @@ void run_arcs(const ArcsOptions& opt) {
   if (opt.gauss && K > kMaxGaussUpto)
     throw UserError("--gauss is limited to --upto " + std::to_string(kMaxGaussUpto) + " (cost grows like K^3)");
 
-  std::unique_ptr<AtomicFile> file;
-  if (!opt.output.empty()) file = std::make_unique<AtomicFile>(opt.output);
+  OutputSink sink(opt.output);
 
   const slong prec = opt.prec;
   const ArcExpansion e = arc_expansion(model, n, static_cast<ulong>(K), prec);
@@ -91,7 +90,7 @@ void run_arcs(const ArcsOptions& opt) {
   const bool contained = arb_overlaps(e.enclosure.get(), M.ball.get());
   const slong dg = opt.digits;
 
-  std::ostream& out = file ? file->stream() : std::cout;
+  std::ostream& out = sink.stream();
   const Provenance prov = Provenance::now(command_line(), prec);
   if (opt.json) {
     nlohmann::json j;
@@ -124,7 +123,7 @@ void run_arcs(const ArcsOptions& opt) {
     j["main_term_in_enclosure"] = contained;
     out << j.dump(2) << "\n";
   } else {
-    if (file) out << prov.csv_comment();
+    if (sink.to_file()) out << prov.csv_comment();
     // Every row carries the enclosure after k terms and the main term, so that
     // convergence can be plotted from the CSV alone.
     const std::string main_text = ball_text(M.ball, dg);
@@ -138,12 +137,7 @@ void run_arcs(const ArcsOptions& opt) {
       out << "\n";
     }
   }
-  if (file) {
-    file->commit();
-  } else {
-    out.flush();
-    if (!out) throw UserError("writing to standard output failed");
-  }
+  sink.finish();
   if (!contained)
     throw InternalError("the main term lies outside the arc enclosure (partial sum +- tail bound)");
 }

@@ -31,10 +31,10 @@ void run_certify(const CertifyCliOptions& o) {
   if (opt.prec < 64) throw UserError("--prec must be at least 64 bits");
   Certificate c = certify_pair(pair, opt);
   std::string text = certificate_to_json(c).dump(2) + "\n";
-  if (o.output.empty()) {
-    std::cout << text;
-  } else {
-    write_file_atomically(o.output, text);
+  OutputSink sink(o.output);
+  sink.stream() << text;
+  sink.finish();
+  if (sink.to_file()) {
     std::cerr << f.name() << "(" << ap.A << "n+" << ap.B << ") vs " << g.name() << "(" << ap2.A << "n+" << ap2.B
               << "): " << verdict_name(c.verdict) << " -- " << c.reason << "\n";
   }

@@ -67,34 +67,16 @@ std::string eta_quotient_text(const EtaQuotient& q) {
 
 void run_count(const CountOptions& opt) {
   const Family family = Family::parse(opt.family);
-  const bool has_to = !opt.to.empty(), has_at = !opt.at.empty(), has_ap = !opt.ap.empty();
-  if (has_to && has_at) throw UserError("give either --to N or --at N, not both");
-  if (has_ap && !has_to) throw UserError("--ap A,B needs --to K (the progression is A*k+B for k = 0..K)");
-  if (!has_to && !has_at) throw UserError("give --to N, --at N or --ap A,B --to K");
-
-  // The rows to print: n = first + step·k for k = 0..count−1 (or the progression).
-  Progression prog;
-  long K = 0, n_max = 0;
-  std::string form;
-  if (has_ap) {
-    prog = Progression::parse(opt.ap);
-    K = parse_nonnegative("--to", opt.to, LONG_MAX);
-    n_max = prog.at(K);  // UserError on 64-bit overflow of A·K + B
-    form = "ap";
-  } else if (has_to) {
-    n_max = parse_nonnegative("--to", opt.to, LONG_MAX);
-    form = "to";
-  } else {
-    n_max = parse_nonnegative("--at", opt.at, LONG_MAX);
-    form = "at";
-  }
+  const RowSelection sel = RowSelection::parse(opt.to, opt.at, opt.ap);
+  const bool has_ap = sel.progression;
+  const long n_max = sel.n_max, rows = sel.count;
+  const std::string form = has_ap ? "ap" : (opt.at.empty() ? "to" : "at");
 
   SeriesPlan plan = plan_family_series(family, n_max);
   check_resources(plan);
 
   // Open the output before the long computation so that an unwritable path fails fast.
-  std::unique_ptr<AtomicFile> file;
-  if (!opt.output.empty()) file = std::make_unique<AtomicFile>(opt.output);
+  OutputSink sink(opt.output);
 
   IntegerSeries series;
   {
@@ -102,7 +84,7 @@ void run_count(const CountOptions& opt) {
     series = compute_series(plan, [&line](const std::string& stage, double f) { line.update(stage, f); });
   }
 
-  std::ostream& out = file ? file->stream() : std::cout;
+  std::ostream& out = sink.stream();
   const Provenance prov = Provenance::now(command_line());
   std::string buf;
   buf.reserve(1 << 20);
@@ -112,9 +94,7 @@ void run_count(const CountOptions& opt) {
       buf.clear();
     }
   };
-  const long first = has_at ? n_max : 0;
-  const long rows = has_ap ? K + 1 : (has_at ? 1 : n_max + 1);
-  auto n_of = [&](long i) { return has_ap ? prog.A * i + prog.B : first + i; };
+  auto n_of = [&sel](long i) { return sel.n_of(i); };
 
   if (opt.json) {
     nlohmann::json head;
@@ -124,9 +104,9 @@ void run_count(const CountOptions& opt) {
     head["generating_function"] = eta_quotient_text(plan.quotient) + "  (E(x) = prod_{k>=1} (1 - x^k))";
     head["form"] = form;
     if (has_ap) {
-      head["A"] = prog.A;
-      head["B"] = prog.B;
-      head["K"] = K;
+      head["A"] = sel.prog.A;
+      head["B"] = sel.prog.B;
+      head["K"] = rows - 1;
     } else {
       head["N"] = n_max;
     }
@@ -156,7 +136,7 @@ void run_count(const CountOptions& opt) {
     }
     buf += "\n  ]\n}\n";
   } else {
-    if (file) buf += prov.csv_comment();
+    if (sink.to_file()) buf += prov.csv_comment();
     buf += has_ap ? "k,n,count\n" : "n,count\n";
     for (long i = 0; i < rows; ++i) {
       if (has_ap) {
@@ -171,12 +151,7 @@ void run_count(const CountOptions& opt) {
     }
   }
   out.write(buf.data(), static_cast<std::streamsize>(buf.size()));
-  if (file) {
-    file->commit();
-  } else {
-    out.flush();
-    if (!out) throw UserError("writing to standard output failed");
-  }
+  sink.finish();
 }
 
 const Registration registration{CommandSpec{

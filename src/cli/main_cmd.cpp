@@ -180,18 +180,11 @@ void run_single(const MainOptions& opt, const Family& family, const QuadraticMod
 
 void run_table(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out,
                bool to_file) {
-  Progression prog;
-  long K = 0, n_max = 0;
-  const bool has_ap = !opt.ap.empty();
-  if (has_ap) {
-    prog = Progression::parse(opt.ap);
-    K = parse_nonnegative("--to", opt.to, LONG_MAX);
-    n_max = prog.at(K);
-  } else {
-    n_max = parse_nonnegative("--to", opt.to, LONG_MAX);
-  }
-  const long rows = has_ap ? K + 1 : n_max + 1;
-  auto n_of = [&](long i) { return has_ap ? prog.A * i + prog.B : i; };
+  // --at (any size) is handled by run_single; tables are limited to 64-bit n.
+  const RowSelection sel = RowSelection::parse(opt.to, "", opt.ap, /*allow_at=*/false);
+  const bool has_ap = sel.progression;
+  const long n_max = sel.n_max, rows = sel.count;
+  auto n_of = [&sel](long i) { return sel.n_of(i); };
   IntegerSeries series;
   const bool with_count = !opt.no_count;
   if (with_count) {
@@ -210,7 +203,7 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
     // Capped so that the one pass over the primes stays cheap (about 6 certified
     // digits at k = 2, far more for k ≥ 3); rows short of --digits are counted below.
     const ulong P = std::min<ulong>(main_term_batch_prime_bound(model.rank, bits), kTableMaxPrime);
-    batch = main_term_batch(model, has_ap ? prog.B : 0, has_ap ? prog.A : 1, rows, P, prec);
+    batch = main_term_batch(model, has_ap ? sel.prog.B : 0, has_ap ? sel.prog.A : 1, rows, P, prec);
   }
   const Provenance prov = Provenance::now(command_line(), opt.fast ? 53 : prec);
   std::string main_col = opt.fast ? "main_fast_not_certified" : "main";
@@ -316,19 +309,12 @@ void run_main(const MainOptions& opt) {
   const QuadraticModel model = quadratic_model(family);
   if (model.rank < 2)
     throw UserError("the main term needs rank ≥ 2, but " + family.name() + " has rank " + std::to_string(model.rank));
-  std::unique_ptr<AtomicFile> file;
-  if (!opt.output.empty()) file = std::make_unique<AtomicFile>(opt.output);
-  std::ostream& out = file ? file->stream() : std::cout;
+  OutputSink sink(opt.output);
   if (has_at)
-    run_single(opt, family, model, out);
+    run_single(opt, family, model, sink.stream());
   else
-    run_table(opt, family, model, out, file != nullptr);
-  if (file) {
-    file->commit();
-  } else {
-    out.flush();
-    if (!out) throw UserError("writing to standard output failed");
-  }
+    run_table(opt, family, model, sink.stream(), sink.to_file());
+  sink.finish();
 }
 
 const Registration registration{CommandSpec{

@@ -44,8 +44,7 @@ void run_ratio(const RatioCliOptions& o) {
   ProgressionPair pair(f, ap, g, ap2);  // UserError when the weights differ
   const long NF = ap.at(K), NG = ap2.at(K);
   if (NF > (1L << 24) || NG > (1L << 24)) throw UserError("A*K+B must stay below 2^24 for the exact series");
-  std::unique_ptr<AtomicFile> file;
-  if (!o.output.empty()) file = std::make_unique<AtomicFile>(o.output);
+  OutputSink sink(o.output);
   IntegerSeries sf = family_series(f, NF), sg = family_series(g, NG);
 
   Certificate limit_parts;
@@ -142,14 +141,10 @@ void run_ratio(const RatioCliOptions& o) {
                      {"ap2", ap2.str()}, {"weight", pair.weight_str()}, {"rows", rows}, {"summary", summary}};
     text = j.dump(1) + "\n";
   } else {
-    text = (file ? prov.csv_comment() : std::string()) + csv;
+    text = (sink.to_file() ? prov.csv_comment() : std::string()) + csv;
   }
-  if (file) {
-    file->stream() << text;
-    file->commit();
-  } else {
-    std::cout << text;
-  }
+  sink.stream() << text;
+  sink.finish();
   if (!o.json) {
     std::cerr << "summary: rho_p varies at p in {";
     for (size_t i = 0; i < varying.size(); ++i) std::cerr << (i ? "," : "") << varying[i];

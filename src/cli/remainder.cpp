@@ -55,31 +55,22 @@ std::string fixed(double x, int decimals) {
 
 void run_remainder(const RemainderOptions& opt) {
   const Family family = Family::parse(opt.family);
-  if (opt.to.empty()) throw UserError("give --to N (all n up to N) or --ap A,B --to K");
   if (opt.prec < 32 || opt.prec > 100000) throw UserError("--prec must be between 32 and 100000 bits");
   const QuadraticModel model = quadratic_model(family);
   if (model.rank < 2)
     throw UserError("family " + family.name() + " has rank " + std::to_string(model.rank) + ": no main term");
 
   // The rows: n = 0..N, or n = A·k + B for k = 0..K; n with X = n + Δ ≤ 0 are skipped.
-  const bool has_ap = !opt.ap.empty();
-  Progression prog;
-  long K = 0, n_max = 0;
-  if (has_ap) {
-    prog = Progression::parse(opt.ap);
-    K = parse_nonnegative("--to", opt.to, LONG_MAX);
-    n_max = prog.at(K);
-  } else {
-    n_max = parse_nonnegative("--to", opt.to, LONG_MAX);
-    K = n_max;
-  }
+  const RowSelection sel = RowSelection::parse(opt.to, "", opt.ap, /*allow_at=*/false);
+  const bool has_ap = sel.progression;
+  const long K = sel.count - 1, n_max = sel.n_max;
   // Every row is kept in memory (about 0.7 KB each) for the summary: cap the table.
   if (K > kMaxRows - 1)
     throw UserError("--to: at most " + std::to_string(kMaxRows) + " rows; thin the range out with --ap A,B");
   std::vector<long> ks;
   std::vector<Fmpz> ns;
   for (long k = 0; k <= K; ++k) {
-    const long n = has_ap ? prog.A * k + prog.B : k;
+    const long n = sel.n_of(k);
     if (fmpq_sgn(model.X(Fmpz(n)).get()) <= 0) continue;
     ks.push_back(k);
     ns.emplace_back(n);
@@ -88,8 +79,7 @@ void run_remainder(const RemainderOptions& opt) {
 
   SeriesPlan plan = plan_family_series(family, n_max);
   check_resources(plan);
-  std::unique_ptr<AtomicFile> file;
-  if (!opt.output.empty()) file = std::make_unique<AtomicFile>(opt.output);
+  OutputSink sink(opt.output);
   const IntegerSeries series = compute_series(plan);
   std::vector<Fmpz> counts;
   counts.reserve(ns.size());
@@ -134,7 +124,7 @@ void run_remainder(const RemainderOptions& opt) {
                                   {"source", cert->source()},
                                   {"rows_not_proved", s.certified_violations}};
 
-  std::ostream& out = file ? file->stream() : std::cout;
+  std::ostream& out = sink.stream();
   const Provenance prov = Provenance::now(command_line(), prec);
   if (opt.json) {
     nlohmann::json j;
@@ -142,7 +132,7 @@ void run_remainder(const RemainderOptions& opt) {
     j["family"] = family.name();
     j["rank"] = model.rank;
     j["delta"] = model.delta.str();
-    if (has_ap) j["ap"] = prog.str();
+    if (has_ap) j["ap"] = sel.prog.str();
     j["summary"] = summary;
     nlohmann::json rows = nlohmann::json::array();
     for (size_t i = 0; i < table.rows.size(); ++i) {
@@ -167,7 +157,7 @@ void run_remainder(const RemainderOptions& opt) {
     j["rows"] = rows;
     out << j.dump(2) << "\n";
   } else {
-    if (file) out << prov.csv_comment();
+    if (sink.to_file()) out << prov.csv_comment();
     out << (has_ap ? "k," : "") << "n,X,count,main_term,main_term_exact,remainder,remainder_exact,E_deligne,E_hecke"
         << (cert ? ",certified_bound,within_bound" : "") << "\n";
     for (size_t i = 0; i < table.rows.size(); ++i) {
@@ -181,12 +171,7 @@ void run_remainder(const RemainderOptions& opt) {
       out << "\n";
     }
   }
-  if (file) {
-    file->commit();
-  } else {
-    out.flush();
-    if (!out) throw UserError("writing to standard output failed");
-  }
+  sink.finish();
   // The summary goes to stderr for CSV output (the CSV itself stays a plain table).
   if (!opt.json && !opt.quiet) {
     std::cerr << "summary: " << s.rows << " rows, remainder " << (s.identically_zero ? "identically 0" : "not identically 0")

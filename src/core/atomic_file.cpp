@@ -7,6 +7,7 @@
 #include <cerrno>
 #include <cstdio>
 #include <cstring>
+#include <iostream>
 #include <sstream>
 
 #include "core/error.hpp"
@@ -39,6 +40,21 @@ void AtomicFile::commit() {
   if (std::rename(tmp_.c_str(), path_.c_str()) != 0)
     throw UserError("cannot rename '" + tmp_ + "' to '" + path_ + "': " + std::strerror(errno));
   committed_ = true;
+}
+
+OutputSink::OutputSink(const std::string& path) {
+  if (!path.empty()) file_ = std::make_unique<AtomicFile>(path);
+}
+
+std::ostream& OutputSink::stream() { return file_ ? file_->stream() : std::cout; }
+
+void OutputSink::finish() {
+  if (file_) {
+    file_->commit();
+    return;
+  }
+  std::cout.flush();
+  if (!std::cout) throw UserError("writing to standard output failed");
 }
 
 void write_file_atomically(const std::string& path, const std::string& content) {

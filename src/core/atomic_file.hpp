@@ -4,6 +4,7 @@
 // atomic on POSIX file systems), so a killed run leaves either the old file
 // or the complete new one, never a half-written one.
 #include <fstream>
+#include <memory>
 #include <string>
 
 namespace circlet {
@@ -26,6 +27,21 @@ class AtomicFile {
   std::string tmp_;
   std::ofstream out_;
   bool committed_ = false;
+};
+
+/// Where a command's output goes: standard output, or (path non-empty) a file
+/// written atomically. Open it before a long computation so that an unwritable
+/// path fails fast; call finish() when the output is complete.
+class OutputSink {
+ public:
+  explicit OutputSink(const std::string& path);
+  std::ostream& stream();
+  bool to_file() const { return file_ != nullptr; }
+  /// Commits the file, or flushes standard output; UserError when writing failed.
+  void finish();
+
+ private:
+  std::unique_ptr<AtomicFile> file_;
 };
 
 /// Writes `content` to `path` atomically.

@@ -17,6 +17,22 @@ struct Progression {
   bool operator==(const Progression& o) const { return A == o.A && B == o.B; }
 };
 
+/// The rows a table command prints, from its --to/--at/--ap options:
+/// n = 0..N (--to N), the single n = N (--at N), or n = A·k + B for k = 0..K
+/// (--ap A,B --to K). Empty strings mean "option not given".
+struct RowSelection {
+  bool progression = false;  // rows are indexed by k, n = prog.at(k)
+  Progression prog;
+  long first_n = 0;  // 0 for --to, N for --at
+  long count = 0;    // number of rows
+  long n_max = 0;    // the largest n of any row
+
+  /// UserError on a missing or contradictory combination, on malformed numbers
+  /// and on A·K + B overflowing 64 bits. `allow_at` = false for commands without --at.
+  static RowSelection parse(const std::string& to, const std::string& at, const std::string& ap, bool allow_at = true);
+  long n_of(long i) const { return progression ? prog.A * i + prog.B : first_n + i; }
+};
+
 /// Parses a non-negative decimal integer ≤ max for the option `what` (e.g. "--to");
 /// UserError naming the option on empty, signed, non-numeric or too-large text.
 long parse_nonnegative(const std::string& what, const std::string& text, long max);
