@@ -4,6 +4,8 @@
 #include <unistd.h>
 
 #include <catch2/catch.hpp>
+
+#include "cli_run.hpp"
 #include <cstdio>
 #include <fstream>
 #include <nlohmann/json.hpp>
@@ -13,27 +15,9 @@
 using namespace std;
 
 namespace {
-struct Run {
-  int status;
-  string out, err;
-};
-
-string slurp(const string& path) {
-  ifstream in(path);
-  stringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
-
-Run run(const string& args) {
-  const string base = "/tmp/circlet_arcs_test_" + to_string(::getpid());
-  const string cmd = CIRCLET_BINARY " " + args + " >" + base + ".out 2>" + base + ".err";
-  const int raw = std::system(cmd.c_str());
-  Run r{WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, slurp(base + ".out"), slurp(base + ".err")};
-  std::remove((base + ".out").c_str());
-  std::remove((base + ".err").c_str());
-  return r;
-}
+using Run = circlet::testing::CliRun;
+using circlet::testing::slurp_file;
+Run run(const string& args, const string& env = "") { return circlet::testing::run_circlet(args, env); }
 
 vector<string> split_lines(const string& s) {
   vector<string> v;

@@ -4,6 +4,8 @@
 #include <unistd.h>
 
 #include <catch2/catch.hpp>
+
+#include "cli_run.hpp"
 #include <cstdio>
 #include <fstream>
 #include <nlohmann/json.hpp>
@@ -13,27 +15,9 @@
 using namespace std;
 
 namespace {
-struct Run {
-  int status;
-  string out, err;
-};
-
-string slurp(const string& path) {
-  ifstream in(path);
-  stringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
-
-Run run(const string& args, const string& env = "") {
-  const string base = "/tmp/circlet_count_test_" + to_string(::getpid());
-  const string cmd = env + " " CIRCLET_BINARY " " + args + " >" + base + ".out 2>" + base + ".err";
-  const int raw = std::system(cmd.c_str());
-  Run r{WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, slurp(base + ".out"), slurp(base + ".err")};
-  std::remove((base + ".out").c_str());
-  std::remove((base + ".err").c_str());
-  return r;
-}
+using Run = circlet::testing::CliRun;
+using circlet::testing::slurp_file;
+Run run(const string& args, const string& env = "") { return circlet::testing::run_circlet(args, env); }
 
 int lines(const string& s) {
   int n = 0;
@@ -93,7 +77,7 @@ TEST_CASE("count -o writes the file atomically with a provenance line", "[cli][c
   Run r = run("count c5 --to 100 -o " + path);
   REQUIRE(r.status == 0);
   CHECK(r.out.empty());
-  const string body = slurp(path);
+  const string body = slurp_file(path);
   CHECK(body.rfind("# circlet ", 0) == 0);
   CHECK(body.find("count c5 --to 100") != string::npos);
   CHECK(lines(body) == 1 + 1 + 101);

@@ -1,5 +1,7 @@
 // Tests for the `circlet main` command (src/cli/main_cmd.cpp), run as a process.
 #include <catch2/catch.hpp>
+
+#include "cli_run.hpp"
 #include <array>
 #include <cstdio>
 #include <memory>
@@ -9,20 +11,12 @@ namespace {
 
 struct Run {
   int status;
-  std::string out;
+  std::string out;  // standard output followed by standard error
 };
 
 Run run(const std::string& args) {
-  std::string cmd = std::string(CIRCLET_BINARY) + " " + args + " 2>&1";
-  FILE* p = ::popen(cmd.c_str(), "r");
-  Run r{-1, ""};
-  if (!p) return r;
-  std::array<char, 4096> buf;
-  size_t n;
-  while ((n = std::fread(buf.data(), 1, buf.size(), p)) > 0) r.out.append(buf.data(), n);
-  int st = ::pclose(p);
-  r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
-  return r;
+  const auto r = circlet::testing::run_circlet(args);
+  return {r.status, r.out + r.err};
 }
 
 }  // namespace

@@ -3,6 +3,8 @@
 #include <unistd.h>
 
 #include <catch2/catch.hpp>
+
+#include "cli_run.hpp"
 #include <fstream>
 #include <sstream>
 #include <string>
@@ -11,13 +13,11 @@
 #include <nlohmann/json.hpp>
 
 namespace {
-std::string run(const std::string& args, int* rc, const std::string& err_to = "/dev/null") {
-  std::string out = "/tmp/circlet_ratio_test_" + std::to_string(::getpid()) + ".out";
-  *rc = WEXITSTATUS(std::system((std::string(CIRCLET_BINARY) + " " + args + " >" + out + " 2>" + err_to).c_str()));
-  std::ifstream in(out);
-  std::string s((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
-  std::remove(out.c_str());
-  return s;
+std::string run(const std::string& args, int* rc, std::string* err = nullptr) {
+  const auto r = circlet::testing::run_circlet(args);
+  *rc = r.status;
+  if (err) *err = r.err;
+  return r.out;
 }
 }  // namespace
 
@@ -54,11 +54,8 @@ TEST_CASE("ratio prints exact counts, exact ratios, local factors and the verdic
 
 TEST_CASE("ratio refuses families of different weight", "[progression][ratio][cli][errors]") {
   int rc = 0;
-  std::string err = "/tmp/circlet_ratio_test_err_" + std::to_string(::getpid());
-  run("ratio c6 sc13 --to 5", &rc, err);
+  std::string err;
+  run("ratio c6 sc13 --to 5", &rc, &err);
   CHECK(rc == 2);
-  std::ifstream in(err);
-  std::string s((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
-  CHECK_THAT(s, Catch::Contains("c6 has weight 5/2 but sc13 has weight 3"));
-  std::remove(err.c_str());
+  CHECK_THAT(err, Catch::Contains("c6 has weight 5/2 but sc13 has weight 3"));
 }

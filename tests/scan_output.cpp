@@ -6,6 +6,8 @@
 #include <unistd.h>
 
 #include <catch2/catch.hpp>
+
+#include "cli_run.hpp"
 #include <chrono>
 #include <fstream>
 #include <thread>
@@ -24,9 +26,7 @@ std::string csv_rows(const std::string& dir) {
   return s.substr(s.find('\n') + 1);
 }
 nlohmann::json json_rows(const std::string& dir) { return nlohmann::json::parse(slurp(dir + "/scan.json"))["rows"]; }
-int run(const std::string& args) {
-  return WEXITSTATUS(std::system((std::string(CIRCLET_BINARY) + " " + args + " 2>/dev/null").c_str()));
-}
+int run(const std::string& args) { return circlet::testing::run_circlet(args).status; }
 long lines(const std::string& path) {
   std::ifstream in(path);
   long n = 0;
