@@ -18,7 +18,7 @@ for src in "$here"/fuzz/fuzz_*.cpp; do
   seeds="$here/fuzz/corpus/${target#fuzz_}"
   scratch="$(mktemp -d)"
   echo "fuzz: $target for ${secs}s (seeds: $seeds)"
-  if ! ASAN_OPTIONS=detect_leaks=0 ./"$target" -max_total_time="$secs" -max_len=4096 "$scratch" "$seeds"; then
+  if ! ASAN_OPTIONS=detect_leaks=0 ./"$target" -max_total_time="$secs" -max_len=8192 "$scratch" "$seeds"; then
     echo "fuzz: $target FAILED; see crash-* in $(pwd)" >&2
     status=1
   fi
