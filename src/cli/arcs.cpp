@@ -40,12 +40,7 @@ constexpr long kMaxUpto = 100000;
 
 // A ball as "[mid +/- rad]" with `digits` digits of the midpoint even where the
 // radius is large (ARB_STR_MORE); reading it back gives a ball containing x.
-std::string ball_text(const Arb& x, slong digits) {
-  char* c = arb_get_str(x.get(), digits, ARB_STR_MORE);
-  std::string s(c);
-  flint_free(c);
-  return s;
-}
+std::string ball_text(const Arb& x, slong digits) { return x.str(digits, ARB_STR_MORE); }
 
 // An upper bound printed as a ball that contains it, or "inf" when there is none.
 std::string bound_text(const Arb& b, slong digits) { return arb_is_finite(b.get()) ? ball_text(b, digits) : "inf"; }

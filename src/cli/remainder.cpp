@@ -38,12 +38,9 @@ struct RemainderOptions {
 
 constexpr long kMaxRows = 1000000;
 
-std::string ball_text(const Arb& x, slong digits) {
-  char* c = arb_get_str(x.get(), digits, ARB_STR_MORE);
-  std::string s(c);
-  flint_free(c);
-  return s;
-}
+// A ball as "[mid +/- rad]" with `digits` digits of the midpoint even where the
+// radius is large (ARB_STR_MORE); reading it back gives a ball containing x.
+std::string ball_text(const Arb& x, slong digits) { return x.str(digits, ARB_STR_MORE); }
 
 std::string fixed(double x, int decimals) {
   std::ostringstream o;

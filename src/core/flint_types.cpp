@@ -52,9 +52,9 @@ Fmpq Fmpq::from_str(const std::string& s) {
 
 std::string Fmpq::str() const { return take_string(fmpq_get_str(nullptr, 10, v_)); }
 
-std::string Arb::str(slong digits) const {
+std::string Arb::str(slong digits, ulong flags) const {
   // arb_get_str rounds outward: the printed ball contains this ball.
-  return take_string(arb_get_str(v_, digits, 0));
+  return take_string(arb_get_str(v_, digits, flags));
 }
 
 }  // namespace circlet

@@ -74,7 +74,8 @@ class Arb {
   operator arb_ptr() { return v_; }        // NOLINT
   operator arb_srcptr() const { return v_; }  // NOLINT
   /// Decimal text "[mid +/- rad]" that reads back (arb_set_str) to a ball containing this one.
-  std::string str(slong digits = 20) const;
+  /// `flags` as for arb_get_str (e.g. ARB_STR_MORE: all `digits` of the midpoint).
+  std::string str(slong digits = 20, ulong flags = 0) const;
 
  private:
   arb_t v_;
