@@ -44,6 +44,20 @@ struct Ctx {
   void ok(const std::string& s) { report.checked.push_back(s); }
 };
 
+// The stored β_F, β_G of a pinned class n ≡ r (mod pe = p^e) against direct
+// counting mod p^j at two representatives, r and r + pe (not the closed forms).
+void check_counted_factors(Ctx& ctx, const ProgressionPair& pair, ulong p, const Fmpz& pe, const Fmpz& r,
+                           const Fmpq& bF, const Fmpq& bG, const std::string& name) {
+  for (int rep = 0; rep < 2; ++rep) {
+    Fmpz n = r;
+    if (rep == 1) fmpz_add(n, n, pe);
+    Fmpq cF = density_by_counting(pair.F, progression_at(pair.apF, n), p);
+    Fmpq cG = density_by_counting(pair.G, progression_at(pair.apG, n), p);
+    if (cF != bF) ctx.fail(name + ": local factor beta_F is " + bF.str() + " in the certificate, counting mod p^j at n = " + n.str() + " gives " + cF.str());
+    if (cG != bG) ctx.fail(name + ": local factor beta_G is " + bG.str() + " in the certificate, counting mod p^j at n = " + n.str() + " gives " + cG.str());
+  }
+}
+
 void check_ball(Ctx& ctx, const nlohmann::json& stored_json, const arb_t recomputed, const std::string& what) {
   Arb stored;
   ball_from_json(stored, stored_json, what);
@@ -184,14 +198,7 @@ void verify_nonconvergent(Ctx& ctx, const nlohmann::json& j, const ProgressionPa
       }
       Fmpq bF = Fmpq::from_str(str_field(fj, "beta_F")), bG = Fmpq::from_str(str_field(fj, "beta_G"));
       // Two representatives of the class, counted independently of the closed forms.
-      for (int rep = 0; rep < 2; ++rep) {
-        Fmpz n = rp;
-        if (rep == 1) fmpz_add(n, n, pe);
-        Fmpq cF = density_by_counting(pair.F, progression_at(pair.apF, n), p);
-        Fmpq cG = density_by_counting(pair.G, progression_at(pair.apG, n), p);
-        if (cF != bF) ctx.fail(fname + ": local factor beta_F is " + bF.str() + " in the certificate, counting mod p^j at n = " + n.str() + " gives " + cF.str());
-        if (cG != bG) ctx.fail(fname + ": local factor beta_G is " + bG.str() + " in the certificate, counting mod p^j at n = " + n.str() + " gives " + cG.str());
-      }
+      check_counted_factors(ctx, pair, p, pe, rp, bF, bG, fname);
       ctx.ok(fname + ": beta_F = " + bF.str() + ", beta_G = " + bG.str() + " on n = " + rp.str() + " mod " + pe.str() +
              " (pinned; counted mod p^j at two representatives)");
       if (bG.is_zero()) {
@@ -275,14 +282,7 @@ void verify_constant_proportional(Ctx& ctx, const nlohmann::json& j, const Progr
         continue;
       }
       Fmpq bF = Fmpq::from_str(str_field(cj, "beta_F")), bG = Fmpq::from_str(str_field(cj, "beta_G"));
-      for (int rep = 0; rep < 2; ++rep) {
-        Fmpz n = r;
-        if (rep == 1) fmpz_add(n, n, pe);
-        Fmpq cF = density_by_counting(pair.F, progression_at(pair.apF, n), p);
-        Fmpq cG = density_by_counting(pair.G, progression_at(pair.apG, n), p);
-        if (cF != bF) ctx.fail(name + ": local factor beta_F is " + bF.str() + " in the certificate, counting mod p^j at n = " + n.str() + " gives " + cF.str());
-        if (cG != bG) ctx.fail(name + ": local factor beta_G is " + bG.str() + " in the certificate, counting mod p^j at n = " + n.str() + " gives " + cG.str());
-      }
+      check_counted_factors(ctx, pair, p, pe, r, bF, bG, name);
       Fmpq q;
       if (bG.is_zero()) { ctx.fail(name + ": beta_G = 0"); continue; }
       fmpq_div(q, bF, bG);
