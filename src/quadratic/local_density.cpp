@@ -305,6 +305,15 @@ void cyclic_mul(fmpz_poly_t a, const fmpz_poly_t b, ulong q) {
   fmpz_poly_truncate(a, static_cast<slong>(q));
 }
 
+// acc ← acc · Σ_c hist[c] x^c in Z[x]/(x^q − 1): one more block's value table
+// convolved in (h is scratch space).
+void cyclic_mul_histogram(fmpz_poly_t acc, fmpz_poly_t h, const std::vector<ulong>& hist, ulong q) {
+  fmpz_poly_zero(h);
+  for (ulong c = 0; c < q; ++c)
+    if (hist[c]) fmpz_poly_set_coeff_ui(h, static_cast<slong>(c), hist[c]);
+  cyclic_mul(acc, h, q);
+}
+
 std::vector<Fmpz> poly_to_table(const fmpz_poly_t a, ulong q) {
   std::vector<Fmpz> out(q);
   for (ulong c = 0; c < q; ++c) fmpz_poly_get_coeff_fmpz(out[c].get(), a, static_cast<slong>(c));
@@ -327,10 +336,7 @@ std::vector<Fmpz> separable_counts(const QuadraticModel& m, ulong q) {
       const unsigned __int128 val = (unsigned __int128)a * y % q * y + (unsigned __int128)b * y;
       hist[static_cast<ulong>(val % q)]++;
     }
-    fmpz_poly_zero(h);
-    for (ulong c = 0; c < q; ++c)
-      if (hist[c]) fmpz_poly_set_coeff_ui(h, static_cast<slong>(c), hist[c]);
-    cyclic_mul(acc, h, q);
+    cyclic_mul_histogram(acc, h, hist, q);
   }
   auto out = poly_to_table(acc, q);
   fmpz_poly_clear(acc);
@@ -449,10 +455,7 @@ std::vector<Fmpz> core_block_counts(const QuadraticModel& m, ulong p, ulong q) {
         for (ulong y2 = 0; y2 < q; ++y2) hist[(base + ((lin + c2 * y2) & mask) * y2) & mask]++;
       }
     }
-    fmpz_poly_zero(h);
-    for (ulong c = 0; c < q; ++c)
-      if (hist[c]) fmpz_poly_set_coeff_ui(h, static_cast<slong>(c), hist[c]);
-    cyclic_mul(acc, h, q);
+    cyclic_mul_histogram(acc, h, hist, q);
   }
   auto out = poly_to_table(acc, q);
   fmpz_poly_clear(acc);
