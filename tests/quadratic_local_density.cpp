@@ -3,6 +3,8 @@
 #include <flint/ulong_extras.h>
 
 #include <catch2/catch.hpp>
+
+#include "quadratic_families.hpp"
 #include <map>
 #include <set>
 #include <tuple>
@@ -15,15 +17,7 @@ namespace {
 
 const ulong kPrimes[] = {2, 3, 5, 7, 11, 13};
 
-std::vector<Family> swept_families() {
-  std::vector<Family> out;
-  for (int t = 2; t <= 11; ++t) {
-    out.push_back({FamilyKind::Core, t});
-    out.push_back({FamilyKind::SelfConjugateCore, t});
-  }
-  for (int s = 1; s <= 8; ++s) out.push_back({FamilyKind::SumOfSquares, s});
-  return out;
-}
+using circlet::testing::swept_families;
 
 // Value tables modulo p^j, computed once per (family, p, j): every n then costs a lookup.
 class CountCache {

@@ -3,6 +3,8 @@
 #include <flint/fmpq_mat.h>
 
 #include <catch2/catch.hpp>
+
+#include "quadratic_families.hpp"
 #include <map>
 #include <random>
 
@@ -10,15 +12,7 @@ using namespace circlet;
 
 namespace {
 
-std::vector<Family> small_families() {
-  std::vector<Family> out;
-  for (int t = 2; t <= 11; ++t) {
-    out.push_back({FamilyKind::Core, t});
-    out.push_back({FamilyKind::SelfConjugateCore, t});
-  }
-  for (int s = 1; s <= 8; ++s) out.push_back({FamilyKind::SumOfSquares, s});
-  return out;
-}
+using circlet::testing::swept_families;
 
 // The linear form of P in the free coordinates (c_t: x_{t−1} = −Σ_{i<t−1} x_i).
 std::vector<Fmpq> free_linear(const QuadraticModel& m) {
@@ -45,7 +39,7 @@ Fmpq quad_form(const QuadraticModel& m, const std::vector<Fmpq>& z) {
 }  // namespace
 
 TEST_CASE("det S from the closed form equals the determinant of the Gram matrix", "[quadratic][model]") {
-  auto fams = small_families();
+  auto fams = swept_families();
   fams.push_back({FamilyKind::Core, 20});
   fams.push_back({FamilyKind::SelfConjugateCore, 25});
   for (const auto& f : fams) {
@@ -68,7 +62,7 @@ TEST_CASE("det S from the closed form equals the determinant of the Gram matrix"
 TEST_CASE("completing the square: P(x) + Δ = Q(x + s) with 2Ss = ℓ", "[quadratic][model]") {
   std::mt19937_64 rng(20261201);
   std::uniform_int_distribution<long> coord(-50, 50);
-  for (const auto& f : small_families()) {
+  for (const auto& f : swept_families()) {
     INFO(f.name());
     const QuadraticModel m = quadratic_model(f);
     if (m.rank == 0) continue;
