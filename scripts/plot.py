@@ -261,13 +261,13 @@ def family_tex(name, arg="n"):
 
 
 def family_rank(name):
-    """Rank r of the quadratic form (MATH.md §2): t−1, ⌊t/2⌋, S."""
+    """Rank r of the quadratic form (docs/MATH.md §2): t−1, ⌊t/2⌋, S."""
     kind, t = family_parts(name)
     return {"c": lambda: t - 1, "sc": lambda: t // 2, "sq": lambda: t}[kind]()
 
 
 def family_shift(name):
-    """Δ with X = n + Δ (MATH.md §2 table), exact."""
+    """Δ with X = n + Δ (docs/MATH.md §2 table), exact."""
     kind, t = family_parts(name)
     if kind == "c":
         return Fraction(t * t - 1, 24)

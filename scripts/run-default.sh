@@ -104,7 +104,7 @@ else
   plot_to ratio ratio_c6_counts.csv ratio_c6_sc11.png --over ratio_sc11_counts.csv "${cert[@]}"
 fi
 
-# Remainder: c7 (weight 3; the cusp part is -a(n+2)/8, MATH.md §3) and c6 (weight 5/2).
+# Remainder: c7 (weight 3; the cusp part is -a(n+2)/8, docs/MATH.md §3) and c6 (weight 5/2).
 for fam in c7 c6; do
   if have remainder; then
     step "remainder $fam and its plot"
@@ -119,7 +119,7 @@ for fam in c7 c6; do
   fi
 done
 
-# Arcs: c9 at n = 1000 (c_9(1000) = 14180606, MATH.md §3), K = 1..40.
+# Arcs: c9 at n = 1000 (c_9(1000) = 14180606, docs/MATH.md §3), K = 1..40.
 if have arcs; then
   step "arcs c9 at n = 1000 and the plot"
   run arcs c9 --at 1000 --upto 40 -o arcs_c9_1000.csv

@@ -86,7 +86,7 @@ TEST_CASE("no tail bound at rank <= 3", "[arcs][terms][tail]") {
 
 TEST_CASE("partial sums plus the tail bound contain the exact count where there is no cusp part",
           "[arcs][terms][containment]") {
-  // c_5 and r_S for S = 5..8 equal their main terms (MATH.md §3; for r_S, S ≤ 8,
+  // c_5 and r_S for S = 5..8 equal their main terms (docs/MATH.md §3; for r_S, S ≤ 8,
   // the space of cusp forms of the relevant level and weight is trivial).
   for (const char* f : {"c5", "sq5", "sq6", "sq7", "sq8"}) {
     const auto model = quadratic_model(Family::parse(f));

@@ -35,7 +35,7 @@ TEST_CASE("arcs prints one CSV row per k with the enclosure and the main term", 
   CHECK(l[0] == "k,coefficient,term,partial_sum,tail_bound,enclosure,main_term");
   // A_2/2^w = 1/16 at n = 1000 (a route (a) value; the tests of arc_terms check it against route (b)).
   CHECK(l[2].rfind("2,1/16,", 0) == 0);
-  CHECK(l[1].find("14181871.40") != string::npos);  // M(1000) ≈ 14181871.4 (MATH.md §3)
+  CHECK(l[1].find("14181871.40") != string::npos);  // M(1000) ≈ 14181871.4 (docs/MATH.md §3)
 }
 
 TEST_CASE("arcs --json carries provenance, terms, tail and main term", "[cli][arcs]") {

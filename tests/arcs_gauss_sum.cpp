@@ -16,7 +16,7 @@ namespace {
 // Independent reference: N_d(n) = #{x ∈ Λ/dΛ : P(x) ≡ n (mod d)} by plain
 // enumeration of the free coordinates in [0, d) (for c_t the last coordinate
 // is −Σ of the others, so x lies in Λ and P(x) is an exact integer), then
-// A_k/k^w = Σ_{d | k} μ(k/d) N_d / d^{r−1} (Möbius inversion of MATH.md §6:
+// A_k/k^w = Σ_{d | k} μ(k/d) N_d / d^{r−1} (Möbius inversion of docs/MATH.md §6:
 // N_k/k^{r−1} = Σ_{d | k} A_d/d^w).
 Fmpz count_mod(const QuadraticModel& model, long n, long d) {
   const int free = model.sum_zero ? model.vars - 1 : model.vars;

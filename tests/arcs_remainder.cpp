@@ -16,7 +16,7 @@ using namespace circlet;
 
 namespace {
 
-// The c_7 main term in closed form (MATH.md §3, the Eisenstein part):
+// The c_7 main term in closed form (docs/MATH.md §3, the Eisenstein part):
 // 8·M(n) = Σ_{d | m} (d/7)(m/d)², m = n + 2.
 MainTermValue c7_divisor_sum_main_term(const Fmpz& n) {
   const long m = fmpz_get_si(n.get()) + 2;
@@ -109,7 +109,7 @@ RemainderTable table_up_to(const char* family, long N) {
 
 TEST_CASE("no cusp part: the remainder of c5 and sq5..sq8 is identically 0 for n <= 2000",
           "[arcs][remainder][mainterm]") {
-  // c_5: MATH.md §3 (verified there by brute force); r_S for S = 5..8: the
+  // c_5: docs/MATH.md §3 (verified there by brute force); r_S for S = 5..8: the
   // theta series of Z^S is an Eisenstein series for S ≤ 8 (E. Grosswald,
   // Representations of Integers as Sums of Squares, Springer 1985, ch. 9 and 11).
   for (const char* f : {"c5", "sq5", "sq6", "sq7", "sq8"}) {

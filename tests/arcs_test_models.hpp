@@ -1,5 +1,5 @@
 #pragma once
-// Models for the arcs tests, written out by hand from MATH.md §2 so that the
+// Models for the arcs tests, written out by hand from docs/MATH.md §2 so that the
 // Gauss-sum route is tested against an independent copy:
 //   c_t : Σ x_i = 0, P = (t/2) Σ x_i² + Σ i·x_i, rank t − 1
 //   sc_t: P = t Σ y_i² + Σ (2i + 1 − t) y_i, m = ⌊t/2⌋ variables, rank m

@@ -23,7 +23,7 @@ TEST_CASE("bad family names are rejected with a clear message", "[family][errors
   CHECK_THROWS_AS(Family::parse("c99999999999"), UserError);
 }
 
-TEST_CASE("ranks follow MATH.md section 2, and c_t and sc_{2t-1} share a weight", "[family]") {
+TEST_CASE("ranks follow docs/MATH.md Â§2, and c_t and sc_{2t-1} share a weight", "[family]") {
   CHECK(Family::parse("c7").rank() == 6);
   CHECK(Family::parse("sc7").rank() == 3);
   CHECK(Family::parse("sc8").rank() == 4);
@@ -40,7 +40,7 @@ TEST_CASE("eta quotients have no leading q-power", "[family]") {
       for (const auto& f : Family{kind, t}.eta_quotient()) s += f.d * f.e;
       const std::string fam = Family{kind, t}.name();
       INFO(fam);
-      // c_t and sc_t carry q^{(t²−1)/24}: the shift Δ of MATH.md §2 (for sc_t, t odd,
+      // c_t and sc_t carry q^{(t²−1)/24}: the shift Δ of docs/MATH.md §2 (for sc_t, t odd,
       // m(m+1)/6 = (t²−1)/24 with m = (t−1)/2); θ^S carries none.
       if (kind == FamilyKind::SumOfSquares) CHECK(s == 0);
       else CHECK(s == static_cast<long>(t) * t - 1);

@@ -22,7 +22,7 @@ Run run(const std::string& args) {
 }  // namespace
 
 TEST_CASE("circlet main: exact main term, count and remainder for c9", "[mainterm][cli]") {
-  // c_9(1000) = 14180606 and M ≈ 14181871.4 (MATH.md §3).
+  // c_9(1000) = 14180606 and M ≈ 14181871.4 (docs/MATH.md §3).
   Run r = run("main c9 --at 1000");
   CHECK(r.status == 0);
   CHECK(r.out.find("382910528/27") != std::string::npos);
@@ -33,7 +33,7 @@ TEST_CASE("circlet main: exact main term, count and remainder for c9", "[mainter
 TEST_CASE("circlet main: --explain lists the parts", "[mainterm][cli]") {
   Run r = run("main c6 --at 101 --explain");
   CHECK(r.status == 0);
-  CHECK(r.out.find("3319/10") != std::string::npos);  // c_6(101) = 330, M ≈ 331.90 (MATH.md §3)
+  CHECK(r.out.find("3319/10") != std::string::npos);  // c_6(101) = 330, M ≈ 331.90 (docs/MATH.md §3)
   CHECK(r.out.find("sigma_inf") != std::string::npos);
   CHECK(r.out.find("Kronecker symbol (7377/.)") != std::string::npos);
   CHECK(r.out.find("special primes") != std::string::npos);

@@ -72,7 +72,7 @@ TEST_CASE("main term: c_5 equals the count and the divisor sum for n ≤ 5000", 
 
 TEST_CASE("main term: c_7 remainder is the CM form eta(t)^3 eta(7t)^3", "[mainterm][main_term]") {
   // 8 (c_7(n) − M(n)) = −a(n+2), Σ a(m) q^m = η(τ)³η(7τ)³ = q Π (1 − q^k)³ (1 − q^{7k})³
-  // (MATH.md §3; note the q-power of η(τ)³η(7τ)³ is q^{(3+21)/24} = q¹, so a(n+2)
+  // (docs/MATH.md §3; note the q-power of η(τ)³η(7τ)³ is q^{(3+21)/24} = q¹, so a(n+2)
   // is the coefficient of q^{n+1} of the product). The product is expanded here
   // factor by factor (mod 2^64: the a(m) are small).
   const long N = 3000;
@@ -269,7 +269,7 @@ TEST_CASE("main term: weight 1 carries Siegel's factor 1/2 (sq2 = r_2, c_3 on av
 
 TEST_CASE("main term: sc_7 (weight 3/2, with β_2 = 0 classes) equals the count, n ≤ 400", "[mainterm][main_term]") {
   // Observed with this code (no theorem cited): the cusp part vanishes here as for c_4.
-  // It exercises the 2-adic zero densities (MATH.md §4: sc_7 has classes with β_2 = 0).
+  // It exercises the 2-adic zero densities (docs/MATH.md §4: sc_7 has classes with β_2 = 0).
   IntegerSeries c = family_series(Family::parse("sc7"), 400);
   QuadraticModel m = model_of("sc7");
   int zeros = 0;

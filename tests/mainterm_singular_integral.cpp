@@ -38,9 +38,9 @@ TEST_CASE("singular integral: closed forms for r = 2, 3, 4", "[mainterm][singula
   CHECK(arb_overlaps(v, ref));
 }
 
-TEST_CASE("singular integral: MATH.md's c_t constant (2π)^{(t−1)/2} X^{(t−3)/2}/(Γ((t−1)/2) t^{t/2})",
+TEST_CASE("singular integral: docs/MATH.md's c_t constant (2π)^{(t−1)/2} X^{(t−3)/2}/(Γ((t−1)/2) t^{t/2})",
           "[mainterm][singular_integral]") {
-  // det S = (t/2)^{t−1} t for c_t (MATH.md §2); the two expressions must agree.
+  // det S = (t/2)^{t−1} t for c_t (docs/MATH.md §2); the two expressions must agree.
   for (int t = 3; t <= 14; ++t) {
     slong prec = 100;
     Fmpq det;

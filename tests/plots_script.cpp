@@ -172,7 +172,7 @@ TEST_CASE("plot.py remainder from a `circlet main --to` table (n, count, main, r
   const TempDir tmp;
   REQUIRE(!tmp.path.empty());
   const std::string& d = tmp.path;
-  // c9: weight 4 (exact main terms, fast), rank 8, X = n + 10/3 (MATH.md §2).
+  // c9: weight 4 (exact main terms, fast), rank 8, X = n + 10/3 (docs/MATH.md §2).
   // Along the progression 2n+1: the table has k (the progression variable) and n = 2k+1.
   REQUIRE(run(kCirclet + " main c9 --ap 2,1 --to 150 -o " + d + "/main.csv >/dev/null 2>&1") == 0);
   std::string svg = render_both("remainder", d + "/main.csv", "", d, "remainder");

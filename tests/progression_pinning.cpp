@@ -13,7 +13,7 @@ Fmpq counted(const QuadraticModel& m, const Fmpz& n, ulong p) {
 }  // namespace
 
 TEST_CASE("pinning is exactly v_p(X(r)) + kappa <= v_p(A) + e", "[progression][pinning]") {
-  // c7: Δ = (49 − 1)/24 = 2, X = n + 2 (MATH.md §2).
+  // c7: Δ = (49 − 1)/24 = 2, X = n + 2 (docs/MATH.md §2).
   ProgressionPair pair(Family::parse("c7"), Progression{1, 0}, Family::parse("sc13"), Progression{1, 0});
   CHECK(is_pinned(pair.F, pair.xF, 5, 1, Fmpz(1)));    // X ≡ 3 (mod 5): unit, pinned mod 5
   CHECK_FALSE(is_pinned(pair.F, pair.xF, 5, 1, Fmpz(3)));  // X ≡ 0 (mod 5): v not fixed
@@ -55,7 +55,7 @@ TEST_CASE("pinned factors are constant on their classes (checked by counting mod
 }
 
 TEST_CASE("the pinned classes at p vary for c_t vs sc_{2t-1} at p = 2", "[progression][pinning]") {
-  // sc_{2t−1} at p = 2 takes several values (MATH.md §4: 5/8 ... 5/4 for sc11), c_6 has β_2 = 1.
+  // sc_{2t−1} at p = 2 takes several values (docs/MATH.md §4: 5/8 ... 5/4 for sc11), c_6 has β_2 = 1.
   ProgressionPair pair(Family::parse("c6"), Progression{1, 0}, Family::parse("sc11"), Progression{1, 0});
   auto classes = pinned_classes(pair, 2, default_pin_depth(pair, 2));
   bool saw_58 = false, saw_54 = false;

@@ -39,7 +39,7 @@ class CountCache {
   std::map<std::tuple<std::string, ulong, int>, std::vector<Fmpz>> tables_;
 };
 
-// The sweep of MATH.md §4: closed form = count at the proved stable exponent J and at J + 1,
+// The sweep of docs/MATH.md §4: closed form = count at the proved stable exponent J and at J + 1,
 // and the closed-form level ν_j = count for every j ≤ J + 1 (so every arc piece is checked too).
 void sweep(long n_end, CountCache& cache) {
   for (const auto& f : swept_families()) {
@@ -83,8 +83,8 @@ TEST_CASE("block-diagonalised counts for c_t agree with the literal (P, sum) dyn
   }
 }
 
-TEST_CASE("beta_p = 1 for p | t, by counting: the cases listed in MATH.md section 4 and all t <= 11", "[quadratic][local]") {
-  // MATH.md §4 lists these as verified; re-check them by counting at j = 1, 2 (and 3 when small).
+TEST_CASE("beta_p = 1 for p | t, by counting: the cases listed in docs/MATH.md Â§4 and all t <= 11", "[quadratic][local]") {
+  // docs/MATH.md §4 lists these as verified; re-check them by counting at j = 1, 2 (and 3 when small).
   const std::vector<std::pair<const char*, ulong>> listed = {
       {"c9", 3}, {"c6", 2}, {"c6", 3}, {"c8", 2}, {"c10", 2}, {"c10", 5}, {"c4", 2},
       {"sc9", 3}, {"sc15", 3}, {"sc15", 5}, {"sc7", 7}, {"sc6", 2}, {"sc6", 3}, {"sc8", 2}};
@@ -111,8 +111,8 @@ TEST_CASE("beta_p = 1 for p | t, by counting: the cases listed in MATH.md sectio
       }
 }
 
-TEST_CASE("sc_7 at p = 2: the values of MATH.md section 4, and beta(4N) = beta(N)/2 beyond them", "[quadratic][local]") {
-  // MATH.md §4 says β_2 of sc_7 takes the values {0, 1/4, 1/2, 3/4, 1, 3/2}. Those all occur, but
+TEST_CASE("sc_7 at p = 2: the values of docs/MATH.md Â§4, and beta(4N) = beta(N)/2 beyond them", "[quadratic][local]") {
+  // docs/MATH.md §4 says β_2 of sc_7 takes the values {0, 1/4, 1/2, 3/4, 1, 3/2}. Those all occur, but
   // the list is incomplete: for m = 3 squares no primitive solution has Σz² ≡ 0 mod 4, so β(4N) = β(N)/2
   // and X = 32 (n = 30) already gives 3/8, confirmed here by counting at the stable exponent and one beyond.
   const QuadraticModel m = quadratic_model(Family::parse("sc7"));
@@ -140,7 +140,7 @@ TEST_CASE("sc_7 at p = 2: the values of MATH.md section 4, and beta(4N) = beta(N
   }
 }
 
-TEST_CASE("sc_11 at p = 2 ranges over [5/8, 5/4] as MATH.md section 4 says", "[quadratic][local]") {
+TEST_CASE("sc_11 at p = 2 ranges over [5/8, 5/4] as docs/MATH.md Â§4 says", "[quadratic][local]") {
   const QuadraticModel m = quadratic_model(Family::parse("sc11"));
   Fmpq lo = local_density(m, Fmpz(0), 2), hi = lo;
   for (long n = 1; n < 2000; ++n) {
@@ -153,7 +153,7 @@ TEST_CASE("sc_11 at p = 2 ranges over [5/8, 5/4] as MATH.md section 4 says", "[q
 }
 
 TEST_CASE("beta_2 = 0 classes of sc_7 exist and the count vanishes on them", "[quadratic][local]") {
-  // sc_7(n) = #{y ∈ Z³ : 7Σy_i² − 6y_0 − 4y_1 − 2y_2 = n} (MATH.md §2), enumerated directly:
+  // sc_7(n) = #{y ∈ Z³ : 7Σy_i² − 6y_0 − 4y_1 − 2y_2 = n} (docs/MATH.md §2), enumerated directly:
   // 7y² − 6|y| ≥ 7y²/2 once |y| ≥ 2, so |y_i| ≤ 8 covers n < 200.
   const QuadraticModel m = quadratic_model(Family::parse("sc7"));
   std::vector<long> count(200, 0);

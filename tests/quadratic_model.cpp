@@ -98,7 +98,7 @@ TEST_CASE("completing the square: P(x) + Δ = Q(x + s) with 2Ss = ℓ", "[quadra
   }
 }
 
-TEST_CASE("the shift Δ matches MATH.md section 2 and is (t²−1)/24 for every core family", "[quadratic][model]") {
+TEST_CASE("the shift Δ matches docs/MATH.md Â§2 and is (t²−1)/24 for every core family", "[quadratic][model]") {
   CHECK(quadratic_model(Family::parse("c5")).delta == Fmpq(1));
   CHECK(quadratic_model(Family::parse("c7")).delta == Fmpq(2));
   CHECK(quadratic_model(Family::parse("sc7")).delta == Fmpq(2));       // m = 3: 3·4/6
@@ -111,7 +111,7 @@ TEST_CASE("the shift Δ matches MATH.md section 2 and is (t²−1)/24 for every 
 
 namespace {
 
-// Coefficients 0..N of the products of MATH.md §1, written out directly.
+// Coefficients 0..N of the products of docs/MATH.md §1, written out directly.
 std::vector<long> product_series(const Family& f, int N) {
   std::vector<long> a(N + 1, 0);
   a[0] = 1;
@@ -172,7 +172,7 @@ std::vector<long> model_counts(const QuadraticModel& m, int N, int box) {
 
 }  // namespace
 
-TEST_CASE("the model counts agree with the generating functions of MATH.md section 1", "[quadratic][model]") {
+TEST_CASE("the model counts agree with the generating functions of docs/MATH.md Â§1", "[quadratic][model]") {
   // Every term q_i x² + ℓ_i x of P is ≥ −ℓ_i²/(4q_i) ≥ −t/2 (|ℓ_i| ≤ t, q_i ≥ t/2), so a point with
   // P ≤ N has every term ≤ N + vars·t/2; the box is the largest |x| allowed by that.
   const int N = 20;

@@ -1,6 +1,6 @@
 // Tests of the exact series engine (src/series/eta_series.hpp) against
 // references outside the engine: the hook-length definition, the abacus
-// lattice model (MATH.md §2), OEIS tables, PARI/GP and exact series over Z.
+// lattice model (docs/MATH.md §2), OEIS tables, PARI/GP and exact series over Z.
 #include "series/eta_series.hpp"
 
 #include <flint/fmpz_poly.h>
@@ -132,7 +132,7 @@ TEST_CASE("definition: t-cores and self-conjugate t-cores by hook lengths, n <= 
   }
 }
 
-TEST_CASE("abacus model: lattice vectors of MATH.md section 2 match the engine", "[series]") {
+TEST_CASE("abacus model: lattice vectors of docs/MATH.md Â§2 match the engine", "[series]") {
   // c_t(n) = #{x ∈ Z^t : Σx = 0, (t/2)Σx² + Σ i·x_i = n}; enumerate the free
   // coordinates x_0..x_{t−2} in a box |x_i| ≤ R and set x_{t−1} = −Σ.
   for (long t = 2; t <= 6; ++t) {

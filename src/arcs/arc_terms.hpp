@@ -1,5 +1,5 @@
 #pragma once
-// The circle-method view of the main term (MATH.md §6): the major arc with
+// The circle-method view of the main term (docs/MATH.md §6): the major arc with
 // denominator k contributes σ_∞(X)·A_k(n)/k^w, the k = 1 term is the leading
 // term and k ≥ 2 are the secondary terms, and
 //
@@ -12,7 +12,7 @@
 //
 // (f multiplicative, the Euler product of |f| converging absolutely), with the
 // product over primes bounded as follows. At a good prime p (p ∤ 2t, p not
-// dividing the numerator or denominator of X) MATH.md §4 gives f(p^j) = 0 for
+// dividing the numerator or denominator of X) docs/MATH.md §4 gives f(p^j) = 0 for
 // j ≥ 2 and |f(p)| = p^{−s}, s = ⌊r/2⌋ (r even: f(p) = −χ(p)p^{−r/2}, χ(p) = ±1;
 // r odd: f(p) = χ_u(p)p^{(1−r)/2}). So, for s ≥ 2 and a cut-off P₀,
 //

@@ -3,7 +3,7 @@
 // where a family with a proved formula for its cusp part offers |E(n)| ≤ B(n).
 //
 // Instance c_7: E(n) = −a(n+2)/8, Σ a(m) q^m = η(τ)³η(7τ)³, a CM newform of
-// weight 3 (MATH.md §3: 8·c_7(n) = Σ_{d|m} (d/7)(m/d)² − a(m), m = n + 2).
+// weight 3 (docs/MATH.md §3: 8·c_7(n) = Σ_{d|m} (d/7)(m/d)² − a(m), m = n + 2).
 // Its coefficients are a(m) = Σ over ideals of norm m of a Hecke character of
 // Q(√−7) of ∞-type 2, so |a(p)| ≤ 2p and |a(m)| ≤ d(m)·m (Deligne's bound,
 // elementary for CM forms: |ψ(𝔞)| = N𝔞), giving |E(n)| ≤ d(n+2)(n+2)/8.

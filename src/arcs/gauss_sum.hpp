@@ -1,11 +1,11 @@
 #pragma once
-// Route (b) to the circle method's arc coefficients (MATH.md §6):
+// Route (b) to the circle method's arc coefficients (docs/MATH.md §6):
 //
 //   A_k(n)/k^w = k^{−r} Σ_{a mod k, (a,k)=1} G(a/k) e(−a n/k),
 //   G(a/k)     = Σ_{x ∈ Λ/kΛ} e(a P(x)/k),
 //
 // where Λ is the lattice of the model (Z^vars, or {Σ x_i = 0} for c_t) of
-// rank r, and P is the model's polynomial (MATH.md §2). Note that n (not
+// rank r, and P is the model's polynomial (docs/MATH.md §2). Note that n (not
 // X = n + Δ) enters: P(x) ≡ n (mod k) is what is counted.
 //
 // G is evaluated through one-dimensional quadratic sums

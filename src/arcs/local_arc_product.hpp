@@ -1,5 +1,5 @@
 #pragma once
-// Route (a) to the circle method's arc coefficients (MATH.md §6): A_k(n) is
+// Route (a) to the circle method's arc coefficients (docs/MATH.md §6): A_k(n) is
 // multiplicative in k, so
 //
 //   A_k(n)/k^w = Π_{p^j || k} A_{p^j}(n)/p^{jw},

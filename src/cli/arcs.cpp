@@ -1,6 +1,6 @@
 // `circlet arcs FAMILY --at N --upto K [--prec BITS] [--json] [-o FILE]`:
 // the circle method's major-arc terms σ_∞(X)·A_k(n)/k^w for k = 1..K
-// (MATH.md §6), their partial sums, a rigorous tail bound after each k, and
+// (docs/MATH.md §6), their partial sums, a rigorous tail bound after each k, and
 // the main term of src/mainterm/ for comparison.
 #include <climits>
 #include <iostream>

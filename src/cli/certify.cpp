@@ -1,6 +1,6 @@
 // `circlet certify F G --ap A,B --ap2 A2,B2 [-o cert.json]`: decide whether
 // F(A n + B) / G(A' n + B') converges and write a certificate that `circlet
-// verify` re-checks (MATH.md §7; src/progression/certify.hpp).
+// verify` re-checks (docs/MATH.md §7; src/progression/certify.hpp).
 #include <iostream>
 #include <memory>
 

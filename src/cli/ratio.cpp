@@ -1,7 +1,7 @@
 // `circlet ratio F G --ap A,B --ap2 A2,B2 --to K [--json] [-o FILE]`: for n = 0..K
 // the exact counts F(A n+B) and G(A2 n+B2), their exact ratio, the ratio of
 // main terms M_F/M_G as a ball, and the parts of the limiting constant
-// (MATH.md §7): the σ_∞ constant sqrt(det S_G/det S_F), the power factor
+// (docs/MATH.md §7): the σ_∞ constant sqrt(det S_G/det S_F), the power factor
 // (X_F/X_G)^{w−1} → (A/A2)^{w−1}, and the local ratio factors ρ_p(n) for p ≤ 7.
 // A summary follows (on stderr for CSV): which ρ_p vary, the range of the
 // ratio, and the verdict of `circlet certify`.

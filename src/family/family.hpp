@@ -1,5 +1,5 @@
 #pragma once
-// The counted families and their generating functions (MATH.md §1).
+// The counted families and their generating functions (docs/MATH.md §1).
 //   c<T>  : t-core partitions c_t(n)
 //   sc<T> : self-conjugate t-cores sc_t(n)
 //   sq<S> : representations r_S(n) of n as a sum of S squares (a family with
@@ -34,7 +34,7 @@ struct Family {
   /// Human-readable description, e.g. "7-core partitions".
   std::string description() const;
 
-  /// Rank r of the quadratic form (MATH.md §2): t−1, ⌊t/2⌋, or S.
+  /// Rank r of the quadratic form (docs/MATH.md §2): t−1, ⌊t/2⌋, or S.
   int rank() const;
   /// Twice the weight of the generating function: 2w = r.
   int twice_weight() const { return rank(); }

@@ -1,6 +1,6 @@
 #pragma once
 // Quadratic Dirichlet characters and their L-values at positive integers
-// (MATH.md §5): the good-prime product of every main term is an L-value.
+// (docs/MATH.md §5): the good-prime product of every main term is an L-value.
 //
 //   χ_d(n) = (d/n), the Kronecker symbol of a fundamental discriminant d
 //   (d = 1 is the trivial character); conductor f = |d|, χ_d(−1) = sign(d).

@@ -1,5 +1,5 @@
 #pragma once
-// The certificate of a verdict on a progression pair (MATH.md §7), and its
+// The certificate of a verdict on a progression pair (docs/MATH.md §7), and its
 // JSON form. Everything a reader needs to re-check the verdict is stored:
 // exact rationals as strings "p/q", balls exactly (ball_io.hpp).
 #include <nlohmann/json.hpp>

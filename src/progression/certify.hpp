@@ -1,5 +1,5 @@
 #pragma once
-// Deciding a progression pair (MATH.md §7): NON-CONVERGENT, CONSTANT or UNDECIDED.
+// Deciding a progression pair (docs/MATH.md §7): NON-CONVERGENT, CONSTANT or UNDECIDED.
 //
 // Procedure.
 //  1. The same family on the same progression: the sequences are identical;
@@ -7,7 +7,7 @@
 //  1'. Proportional route (weight > 2). If X_G(n) = λ·X_F(n) for every n
 //     (A'·b_F = A·b_G) and D = det S_F · det S_G (· λ for odd rank) is a
 //     rational square, then for every prime p outside the finite set P of
-//     constant_route_primes both β_p are given by the same closed form (MATH.md
+//     constant_route_primes both β_p are given by the same closed form (docs/MATH.md
 //     §4, unimodular at p) evaluated at the same v_p(X) and the same character
 //     value (even rank: χ_F(p)χ_G(p) = (D/p) = 1; odd rank: the unit parts
 //     differ by λ and χ_{u,F}χ_{u,G} = (D/p) = 1), so ρ_p = 1. If moreover at

@@ -1,5 +1,5 @@
 #pragma once
-// Assembling the limit interval of one class (MATH.md §7):
+// Assembling the limit interval of one class (docs/MATH.md §7):
 //   I = C_σ · (A/A')^{w−1} · Π_{q≤Q} ρ_q · [e^{−S}, e^{S}],
 //   C_σ = sqrt(det S_G / det S_F)  (ratio of π^{r/2}/(Γ(r/2) sqrt(det S)), same r),
 // and the interval for n ≥ n0 with (X_F(n)/X_G(n))^{w−1} in place of its limit.

@@ -1,7 +1,7 @@
 #pragma once
 // Pinning a local density on a residue class of the progression variable.
 //
-// Which residue data β_p(X) uses (read off the closed forms of MATH.md §4):
+// Which residue data β_p(X) uses (read off the closed forms of docs/MATH.md §4):
 //  * p | t for c_t or sc_t: β_p = 1 for every n. Nothing to pin.
 //  * p odd, p ∤ t: β_p is a function of v = v_p(X) and of the Legendre symbol
 //    of the unit part u = X/p^v (odd rank; even rank uses v only). So it is

@@ -1,7 +1,7 @@
 #pragma once
-// A pair of families compared along arithmetic progressions (MATH.md §7):
+// A pair of families compared along arithmetic progressions (docs/MATH.md §7):
 // F is evaluated at A·n + B, G at A'·n + B', for n = 0, 1, 2, ...
-// On the model side (MATH.md §2) X_F(n) = A·n + B + Δ_F is an affine function
+// On the model side (docs/MATH.md §2) X_F(n) = A·n + B + Δ_F is an affine function
 // of the progression variable n with integer slope A and rational constant.
 #include <string>
 

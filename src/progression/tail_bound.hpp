@@ -1,7 +1,7 @@
 #pragma once
-// A rigorous bound for Π_{q > Q} ρ_q(n), uniform in n (MATH.md §7).
+// A rigorous bound for Π_{q > Q} ρ_q(n), uniform in n (docs/MATH.md §7).
 //
-// Per-prime bound (derived from MATH.md §4; w = r/2). For a prime q with
+// Per-prime bound (derived from docs/MATH.md §4; w = r/2). For a prime q with
 // q ∤ 2t (both families; for q | t, β_q = 1 and the bound holds trivially),
 // write v = v_q(X):
 //  * r even: β_q = (1 − χq^{−w}) Σ_{i=0}^{v} (χq^{1−w})^i with χ = ±1, so

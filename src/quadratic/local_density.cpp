@@ -11,12 +11,12 @@
 
 #include "core/error.hpp"
 
-// Local densities β_p(n) = lim_j N_j(n)/p^{j(r−1)} (MATH.md §3–4).
+// Local densities β_p(n) = lim_j N_j(n)/p^{j(r−1)} (docs/MATH.md §3–4).
 //
 // Three cases cover every family and prime (see classify()):
 //   Structural   p | t for c_t, sc_t.                     β_p = 1, ν_j = 1 for every j.
 //   Unimodular   p odd, p ∤ t (every odd p for sq_S), and p = 2 for c_t with t odd:
-//                the form is unimodular at p (even unimodular at 2); closed forms of MATH.md §4.
+//                the form is unimodular at p (even unimodular at 2); closed forms of docs/MATH.md §4.
 //   TwoAdicSq    p = 2 for sc_t with t odd and for sq_S: β_2 is the 2-adic density of a sum of
 //                m squares at N = X/t (sq_S: N = X = n), by the primitive/imprimitive recursion.
 // Here ν_j := N_j(n)/p^{j(r−1)} (the normalised count modulo p^j), ν_0 = 1.
@@ -120,7 +120,7 @@ int kronecker2(const Fmpq& x) {
 }
 
 // The quadratic character of a form unimodular at p, r even: χ(p) = ((−1)^{r/2} det S / p) for p odd,
-// the Kronecker symbol (D/2) with D = (−1)^{r/2} det(2S) at p = 2 (MATH.md §4).
+// the Kronecker symbol (D/2) with D = (−1)^{r/2} det(2S) at p = 2 (docs/MATH.md §4).
 int even_rank_chi(const QuadraticModel& m, const Fmpz& p) {
   Fmpq d = m.det_gram;
   if ((m.rank / 2) % 2 == 1) fmpq_neg(d.get(), d.get());
@@ -136,12 +136,12 @@ int odd_rank_chi(const QuadraticModel& m, const Fmpq& X, const Fmpz& p, long v) 
   return legendre(d, p);
 }
 
-// ---- Unimodular case: the arc pieces a_i and β (MATH.md §4) ------------------------------
+// ---- Unimodular case: the arc pieces a_i and β (docs/MATH.md §4) ------------------------------
 
 // a_i = A_{p^i}(n)/p^{iw}. From the Gauss sums of a unimodular form (G(a/p^i) = χ(p)^i p^{ir/2}
 // for r even) times the Ramanujan sum c_{p^i}(X):
 //   r even: a_i = χ^i p^{i(1−r/2)}(1 − 1/p) for 1 ≤ i ≤ v, a_{v+1} = −χ^{v+1} p^{(v+1)(1−r/2)−1}.
-//   r odd:  MATH.md §4 (a_i = 0 for odd i ≤ v; the last one carries χ_u).
+//   r odd:  docs/MATH.md §4 (a_i = 0 for odd i ≤ v; the last one carries χ_u).
 Fmpq unimodular_arc(const QuadraticModel& m, const Fmpq& X, const Fmpz& p, long i) {
   if (i == 0) return Fmpq(1);
   const long r = m.rank;
@@ -259,7 +259,7 @@ Fmpq squares_level(long m, const Fmpq& N, long j) {
   return out;
 }
 
-// β(N) = β*(N mod 8) + 2^{2−m}·β(N/4)·[4 | N]  (MATH.md §4), N ≠ 0.
+// β(N) = β*(N mod 8) + 2^{2−m}·β(N/4)·[4 | N]  (docs/MATH.md §4), N ≠ 0.
 Fmpq squares_beta(long m, const Fmpq& N) {
   const PrimitiveTable& tab = primitive_table(m);
   Fmpq out = tab.nu[3][mod_2k(N, 3)];
@@ -613,7 +613,7 @@ bool is_structural_prime(const QuadraticModel& model, ulong p) {
   return model.family.kind != FamilyKind::SumOfSquares && model.family.t % static_cast<long>(p) == 0;
 }
 
-// ---- Assembly helpers (MATH.md §5) ---------------------------------------------------------
+// ---- Assembly helpers (docs/MATH.md §5) ---------------------------------------------------------
 
 namespace {
 

@@ -1,6 +1,6 @@
 #pragma once
-// Local densities β_p(n) (MATH.md §4) and the circle method's p-power arc
-// pieces A_{p^j}(n)/p^{jw} (MATH.md §6), as exact rationals.
+// Local densities β_p(n) (docs/MATH.md §4) and the circle method's p-power arc
+// pieces A_{p^j}(n)/p^{jw} (docs/MATH.md §6), as exact rationals.
 //
 //   β_p(n) = lim_j N_j(n) / p^{j(r−1)},  N_j(n) = #{x mod p^j : P(x) ≡ n (mod p^j)}
 //   (for c_t: x ∈ (Z/p^j)^t with Σ x_i ≡ 0, normalised by p^{j(t−2)}).
@@ -39,7 +39,7 @@ Fmpq local_arc_piece(const QuadraticModel& model, const Fmpz& n, const Fmpz& p, 
 bool is_structural_prime(const QuadraticModel& model, ulong p);
 
 // ---------------------------------------------------------------------------
-// Additions for assembling Π_p β_p (MATH.md §5) and for the counting reference.
+// Additions for assembling Π_p β_p (docs/MATH.md §5) and for the counting reference.
 //
 // Every function above and below throws UserError when p is not prime, when the
 // family has rank 0 (c1, sc1), or when X = n + Δ = 0 (the density diverges there).

@@ -50,7 +50,7 @@ QuadraticModel quadratic_model(const Family& family) {
   const long t = family.t;
   switch (family.kind) {
     case FamilyKind::Core: {
-      // MATH.md §2: c_t(n) = #{x ∈ Z^t : Σx_i = 0, (t/2)Σx_i² + Σ i·x_i = n}.
+      // docs/MATH.md §2: c_t(n) = #{x ∈ Z^t : Σx_i = 0, (t/2)Σx_i² + Σ i·x_i = n}.
       m.vars = static_cast<int>(t);
       m.sum_zero = true;
       m.quad.assign(t, Fmpq(t, 2));
@@ -63,12 +63,12 @@ QuadraticModel quadratic_model(const Family& family) {
       // det(I + J) = 1 + r = t (eigenvalues 1 (r−1 times) and 1 + r), so det S = (t/2)^{t−1}·t.
       m.det_gram = power(Fmpq(t, 2), static_cast<ulong>(t - 1));
       fmpq_mul_si(m.det_gram.get(), m.det_gram.get(), t);
-      // Δ = (t² − 1)/24 (MATH.md §2 table; checked in tests against S⁻¹ and P).
+      // Δ = (t² − 1)/24 (docs/MATH.md §2 table; checked in tests against S⁻¹ and P).
       m.delta = Fmpq(t * t - 1, 24);
       break;
     }
     case FamilyKind::SelfConjugateCore: {
-      // MATH.md §2: sc_t(n) = #{y ∈ Z^m : tΣy_i² + Σ(2i+1−t)y_i = n}, m = ⌊t/2⌋.
+      // docs/MATH.md §2: sc_t(n) = #{y ∈ Z^m : tΣy_i² + Σ(2i+1−t)y_i = n}, m = ⌊t/2⌋.
       const long mm = t / 2;
       m.vars = static_cast<int>(mm);
       m.quad.assign(mm, Fmpq(t));

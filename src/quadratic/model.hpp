@@ -1,5 +1,5 @@
 #pragma once
-// The quadratic-polynomial model of each family (MATH.md §2): the count is the
+// The quadratic-polynomial model of each family (docs/MATH.md §2): the count is the
 // number of lattice points x with P(x) = n, and completing the square turns
 // P(x) = n into Q(x + shift) = X := n + Δ for a positive definite form Q of
 // rank r with Gram matrix S (Q(x) = xᵀ S x).
@@ -28,7 +28,7 @@ struct QuadraticModel {
   Fmpq evaluate(const std::vector<long>& x) const;
 };
 
-/// The model of MATH.md §2 for a family.
+/// The model of docs/MATH.md §2 for a family.
 QuadraticModel quadratic_model(const Family& family);
 
 }  // namespace circlet

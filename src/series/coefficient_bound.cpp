@@ -103,7 +103,7 @@ CoefficientBound family_coefficient_bound(const Family& family, long N) {
   r.nonnegative = true;  // every family counts something
   switch (family.kind) {
     case FamilyKind::Core: {
-      // c_t(n) = #{x ∈ Z^t : Σx_i = 0, (t/2)Σx_i² + Σ i·x_i = n}   (MATH.md §2).
+      // c_t(n) = #{x ∈ Z^t : Σx_i = 0, (t/2)Σx_i² + Σ i·x_i = n}   (docs/MATH.md §2).
       // With c_i = i/t − (t−1)/(2t) (so Σc_i = 0 and Σ c_i x_i = Σ i x_i / t when Σx = 0):
       //   (t/2) Σ (x_i + c_i)² = n + (t/2)Σc_i² = n + (t² − 1)/24 = X,
       // because Σ c_i² = Σ (i − (t−1)/2)² / t² = (t² − 1)/(12 t).
@@ -136,7 +136,7 @@ CoefficientBound family_coefficient_bound(const Family& family, long N) {
       return r;
     }
     case FamilyKind::SelfConjugateCore: {
-      // sc_t(n) = #{y ∈ Z^m : t Σ y_i² + Σ (2i+1−t) y_i = n},  m = ⌊t/2⌋   (MATH.md §2).
+      // sc_t(n) = #{y ∈ Z^m : t Σ y_i² + Σ (2i+1−t) y_i = n},  m = ⌊t/2⌋   (docs/MATH.md §2).
       // With c_i = (2i+1−t)/(2t):  t Σ (y_i + c_i)² = n + Σ (2i+1−t)²/(4t) = X.
       // So (y_i + c_i)² ≤ X/t: each y_i lies in an interval of length 2·sqrt(X/t),
       //   sc_t(n) ≤ (⌊2·sqrt(X/t)⌋ + 1)^m,  (2·sqrt(X/t))² = 4X/t = (4tn + S)/t²,

@@ -5,7 +5,7 @@
 //
 // Two kinds of bound:
 //  * family_coefficient_bound: for the counted families, the smallest of
-//    - the "box" bound from the abacus / lattice model of MATH.md §2 (every
+//    - the "box" bound from the abacus / lattice model of docs/MATH.md §2 (every
 //      coordinate of a solution lies in a short interval; exact integers),
 //    - the "slice" bound: at most 2 solutions per lattice point of the
 //      projected ellipsoid, counted by volume (Arb, rounded up),
