@@ -111,7 +111,8 @@ TEST_CASE("no cusp part: the remainder of c5 and sq5..sq8 is identically 0 for n
           "[arcs][remainder][mainterm]") {
   // c_5: docs/MATH.md §3 (verified there by brute force); r_S for S = 5..8: the
   // theta series of Z^S is an Eisenstein series for S ≤ 8 (E. Grosswald,
-  // Representations of Integers as Sums of Squares, Springer 1985, ch. 9 and 11).
+  // Representations of Integers as Sums of Squares, Springer 1985, ch. 9 and 11;
+  // quoted from memory).
   for (const char* f : {"c5", "sq5", "sq6", "sq7", "sq8"}) {
     RemainderTable t = table_up_to(f, 2000);
     INFO(f);

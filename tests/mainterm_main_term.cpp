@@ -56,7 +56,7 @@ TEST_CASE("main term: input errors are user errors with a clear message", "[main
 TEST_CASE("main term: c_5 equals the count and the divisor sum for n ≤ 5000", "[mainterm][main_term]") {
   // No cusp forms of this weight and level: c_5(n) = Σ_{d | n+1} (d/5) (n+1)/d
   // (F. Garvan, D. Kim, D. Stanton, "Cranks and t-cores", Invent. Math. 101 (1990),
-  // 1–17; formula quoted from memory, independently checked here against the series).
+  // 1–17 (bibliographic data read); formula quoted from memory, independently checked here against the series).
   const long N = 5000;
   IntegerSeries c = family_series(Family::parse("c5"), N);
   QuadraticModel m = model_of("c5");
@@ -103,7 +103,7 @@ TEST_CASE("main term: sums of squares r_S = M for S = 5..8, Jacobi for r_4 and r
   // Hardy (1920): for 5 ≤ S ≤ 8 the singular series gives r_S(n) exactly
   // (G. H. Hardy, "On the representation of a number as the sum of any number of
   // squares, and in particular of five", Trans. AMS 21 (1920); E. Grosswald,
-  // Representations of Integers as Sums of Squares, Springer 1985, ch. 9).
+  // Representations of Integers as Sums of Squares, Springer 1985, ch. 9; both quoted from memory).
   // Jacobi: r_4(n) = 8 Σ_{d | n, 4 ∤ d} d;  r_8(n) = 16 Σ_{d | n} (−1)^{n+d} d³ (Grosswald ch. 9).
   const long N = 500;
   for (int S = 4; S <= 8; ++S) {
@@ -139,7 +139,8 @@ void check_c4(long N) {
     Fmpq M = exact_main(m, n);
     if (M != Fmpq(c.value(n))) exceptions.push_back(n);
     // Ono–Sze: c_4(n) = h(−32n − 20)/2 when 8n + 5 is squarefree (K. Ono and
-    // L. Sze, "4-core partitions and class numbers", Acta Arith. 80 (1997), 249–272).
+    // L. Sze, "4-core partitions and class numbers", Acta Arith. 80 (1997), 249–272;
+    // bibliographic data read in OEIS A045831, statement quoted from memory).
     if (n_is_squarefree((ulong)(8 * n + 5))) {
       Fmpz h = class_number(-32 * n - 20);
       fmpz_fdiv_q_2exp(h.get(), h.get(), 1);
@@ -247,7 +248,7 @@ TEST_CASE("main term: |count − M| is below a generous multiple of X^{w/2} (san
 
 TEST_CASE("main term: weight 1 carries Siegel's factor 1/2 (sq2 = r_2, c_3 on average)", "[mainterm][main_term]") {
   // x² + y² is alone in its genus, so Siegel's formula gives r_2 exactly:
-  // r_2(n) = 4 Σ_{d|n} χ_{−4}(d) (Jacobi; Grosswald 1985, ch. 2), counted directly here.
+  // r_2(n) = 4 Σ_{d|n} χ_{−4}(d) (Jacobi; Grosswald 1985, ch. 2, quoted from memory), counted directly here.
   std::vector<int64_t> r = squares_counts(2, 500);
   QuadraticModel m = model_of("sq2");
   for (long n = 1; n <= 500; ++n) {

@@ -192,7 +192,7 @@ long jacobi8_sum(long n) {
 }  // namespace
 
 TEST_CASE("sq4: the local factors of Jacobi's four-square formula", "[quadratic][local]") {
-  // Jacobi (1829, Fundamenta nova theoriae functionum ellipticarum): r_4(n) = 8 Σ_{d|n, 4∤d} d.
+  // Jacobi (1829, Fundamenta nova theoriae functionum ellipticarum; quoted from memory): r_4(n) = 8 Σ_{d|n, 4∤d} d.
   // With σ_∞ = π²n and Π_{p odd}(1 − p⁻²) = (6/π²)/(3/4) = 8/π², the Siegel product
   // r_4(n) = π²n Π_p β_p splits into β_2 = 1 (n odd), 3/2^a (2^a ∥ n, a ≥ 1), and for odd p
   // β_p = (1 − p⁻²) Σ_{i ≤ v_p(n)} p^{−i}; then r_4(n) = 8n·β_2·Π_{p | n odd} Σ_{i ≤ v} p^{−i}.
@@ -228,7 +228,7 @@ TEST_CASE("sq4: the local factors of Jacobi's four-square formula", "[quadratic]
 
 TEST_CASE("sq8: the Siegel product reproduces Jacobi's eight-square formula exactly", "[quadratic][local]") {
   // r_8(n) = 16 Σ_{d|n} (−1)^{n+d} d³ (Jacobi; see Grosswald, Representations of Integers as Sums
-  // of Squares, Springer 1985, ch. 9). No cusp forms of weight 4 on Γ0(4), so r_8 = σ_∞ Π β_p with
+  // of Squares, Springer 1985, ch. 9; quoted from memory). No cusp forms of weight 4 on Γ0(4), so r_8 = σ_∞ Π β_p with
   // σ_∞ = π⁴n³/Γ(4) and Π_{p odd}(1 − p⁻⁴) = (90/π⁴)/(15/16) = 96/π⁴: r_8(n) = 16n³·β_2·Π_{p|n odd} β_p/(1 − p⁻⁴).
   const QuadraticModel m = quadratic_model(Family::parse("sq8"));
   for (long n = 1; n <= 200; ++n) {

@@ -35,11 +35,14 @@ TEST_CASE("exact proportionality, vanishing and failures are told apart", "[scan
 // For t = 5 (weight 2) c_5(An+B) is never an exact multiple of sc_9(A'n+B') on a
 // progression pair with A, A' ≤ 6 (tested for n ≤ 400). Published: an equality
 // of the shape c_t(An+B) = k·sc_{2t−1}(A'n+B') is proved impossible for
-// t ∈ {2, 3, 5} in "On t-core and self-conjugate (2t−1)-core partitions in
-// arithmetic progressions", arXiv:2005.07020 (2020) (authors K. Bringmann,
-// B. Kane, J. Males — names from memory; the title and abstract were read).
-// c_5 never vanishes (c_t(n) > 0 for t ≥ 4, Granville and Ono, Trans. AMS 348
-// (1996)), so no pair vanishes identically.
+// t ∈ {2, 3, 5} according to the abstract of K. Bringmann, B. Kane, J. Males,
+// "On t-core and self-conjugate (2t−1)-core partitions in arithmetic
+// progressions", arXiv:2005.07020v3 (2020) (title, authors and abstract read;
+// v1 of the same arXiv number has another title, see tests/series_eta_series.cpp;
+// docs/MATH.md §9, §11 [BKM20]).
+// c_5 never vanishes (c_t(n) > 0 for t ≥ 4: A. Granville, K. Ono, "Defect zero
+// p-blocks for finite simple groups", Trans. Amer. Math. Soc. 348 (1996),
+// 331–347; abstract read), so no pair vanishes identically.
 TEST_CASE("t = 5: no exact proportionality on any pair with M <= 6", "[scan][compare]") {
   const long K = 400, M = 6;
   IntegerSeries c5 = family_series(Family::parse("c5"), M * K + M), sc9 = family_series(Family::parse("sc9"), M * K + M);
@@ -58,12 +61,12 @@ TEST_CASE("t = 5: no exact proportionality on any pair with M <= 6", "[scan][com
   CHECK(vanish == 0);
 }
 
-// The t = 4 exception. The abstract of arXiv:2005.07020 states the equality
-// 2·sc_7(8n+1) = c_4(7n+2). Our exact counts satisfy it for every n ≢ 4 (mod 7)
+// The t = 4 exception (docs/MATH.md §9). The abstract of arXiv:2005.07020v3
+// (read) calls 2·sc_7(8n+1) = c_4(7n+2) "the curious equality", with no range
+// stated; the theorem in the body was not read here. Our exact counts satisfy it for every n ≢ 4 (mod 7)
 // up to n = 2000, but NOT on n ≡ 4 (mod 7): c_4(30) = 7 while sc_7(33) = 3
 // (both re-checked by enumerating partitions with the hook-length definition,
-// a Python one-off during development). Presumably the paper's theorem carries a
-// condition the abstract omits; the scan reports exactly this "proportional
+// a Python one-off during development). The scan reports exactly this "proportional
 // except on a class" shape.
 TEST_CASE("t = 4: c_4(7n+2) = 2 sc_7(8n+1) except on n = 4 mod 7", "[scan][compare]") {
   const long K = 2000;

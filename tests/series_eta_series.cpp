@@ -237,19 +237,23 @@ long twelve_hurwitz_frac(long num, long den) { return num % den ? 0 : twelve_hur
 TEST_CASE("published theorems on sc_7 and 4-cores", "[series]") {
   const long N = 400;
   IntegerSeries sc7 = family_series(Family::parse("sc7"), 8 * N + 7);
-  // Bringmann and Kane, "Extending Ono and Raji's relations between class numbers
-  // and self-conjugate 7-cores" (arXiv:2005.07020v1, 2020), Theorem 1.1: for n ∈ N,
+  // K. Bringmann, B. Kane, "Extending Ono and Raji's relations between class numbers
+  // and self-conjugate 7-cores", arXiv:2005.07020v1 (2020) — the title of version 1,
+  // read; later versions of the same number (with J. Males) are titled "On t-core and
+  // self-conjugate (2t−1)-core partitions in arithmetic progressions" (docs/MATH.md §11).
+  // Theorem 1.1 (read): for n ∈ N,
   //   sc_7(n) = (H(28n+56) − H((4n+8)/7) − 2H(7n+14) + 2H((n+2)/7)) / 4.
   for (long n = 1; n <= N; ++n) {
     const long rhs12 = twelve_hurwitz(28 * n + 56) - twelve_hurwitz_frac(4 * n + 8, 7) -
                        2 * twelve_hurwitz(7 * n + 14) + 2 * twelve_hurwitz_frac(n + 2, 7);
     if (48 * fmpz_get_si(sc7.at(n)) != rhs12) FAIL("Theorem 1.1 fails at n = " << n);
   }
-  // Ono and Raji, "Class numbers and self-conjugate 7-cores" (arXiv:1909.05209):
+  // K. Ono, W. Raji, "Class numbers and self-conjugate 7-cores", arXiv:1909.05209 (abstract read):
   // sc_7(n) = 0 for n ≡ 7 (mod 8).
   for (long n = 7; n <= 8 * N + 7; n += 8) REQUIRE(fmpz_is_zero(sc7.at(n)));
   // Hirschhorn and Sellers, "Some amazing facts about 4-cores", J. Number Theory
-  // 60 (1996) 51–69: for k ≥ 1, with a_4 = c_4,
+  // 60 (1996) 51–69 (bibliographic data read in OEIS A045831; identities quoted
+  // from memory, checked here): for k ≥ 1, with a_4 = c_4,
   //   a_4(3^{2k+1} n + (5·3^{2k} − 5)/8)    = 3^k a_4(3n),
   //   a_4(3^{2k+1} n + (13·3^{2k} − 5)/8)   = (2·3^k − 1) a_4(3n + 1),
   //   a_4(3^{2k+2} n + (7·3^{2k+1} − 5)/8)  = ((3^{k+1} − 1)/2) a_4(9n + 2).

@@ -227,7 +227,7 @@ void dirichlet_l_euler_tail(arb_t eps, ulong k, ulong P, slong prec) {
   //                ≤ k ∫_P^∞ 1.25506 x^{−k}/log x dx ≤ 1.25506 k P^{1−k} / ((k−1) log P),
   // using π(x) < 1.25506 x/log x for x > 1 (J. B. Rosser and L. Schoenfeld,
   // "Approximate formulas for some functions of prime numbers", Illinois J.
-  // Math. 6 (1962), 64–94, Corollary 1 to Theorem 2; constant quoted from memory)
+  // Math. 6 (1962), 64–94; corollary number and constant quoted from memory)
   // and 1/log x ≤ 1/log P on [P, ∞). Hence
   //   ε = 1.25506 k P^{1−k} / ((k−1) log P (1 − P^{−k})).
   slong wp = prec + 20;

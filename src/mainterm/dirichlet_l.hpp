@@ -10,10 +10,10 @@
 //   with τ(χ_d) = sqrt(f) (d > 0) or i·sqrt(f) (d < 0), so
 //   L(k, χ) = R · π^k / sqrt(f),   R = (−1)^{1+⌊k/2⌋} · 2^{k−1}/k! · Σ_{a=1}^{f} χ(a) B_k(a/f),
 //   and B_{k,χ} = f^{k−1} Σ_{a=1}^{f} χ(a) B_k(a/f) (generalised Bernoulli number).
-// References: L. C. Washington, Introduction to Cyclotomic Fields, 2nd ed.,
-// Springer 1997, Thm 4.2 and Exercise 4.? (functional equation); H. Cohen,
-// Number Theory Vol. II, Springer GTM 240 (2007), §10.3 (Prop. 10.3.5; quoted
-// from memory). The tests check R against acb_dirichlet_l and PARI/GP.
+// References (docs/MATH.md §5, §11): L. C. Washington, Introduction to Cyclotomic
+// Fields, 2nd ed., Springer 1997, Thm 4.2; H. Cohen, Number Theory Vol. II,
+// Springer GTM 240 (2007), §10.3 (both quoted from memory). The tests check R
+// against acb_dirichlet_l and PARI/GP.
 //
 // Ball route (large conductor, k ≥ 2): the Euler product over p ≤ P with a
 // rigorous tail bound (see dirichlet_l_euler).
