@@ -110,6 +110,7 @@ for fam in c7 c6; do
     step "remainder $fam and its plot"
     run remainder "$fam" --to 3000 -o "remainder_$fam.csv" >/dev/null
     plot_to remainder "remainder_$fam.csv" "remainder_$fam.png"
+    plot_to relerr "remainder_$fam.csv" "relerr_$fam.png"
   elif have main; then
     step "'circlet remainder' is not in this build: remainder of $fam from 'circlet main --to'"
     run main "$fam" --to 1500 -o "remainder_$fam.csv"
@@ -131,6 +132,12 @@ if have arcs; then
   plot_to arcs arcs_c9_1000.csv arcs_c9_1000.png "${main[@]}"
 else
   step "'circlet arcs' is not in this build: arcs plot skipped"
+fi
+
+# Scan heat map: the largest pinning prime per (A, A'), discrete colour bar.
+if [ -f "$out/scan/scan.csv" ]; then
+  step "scan heat map"
+  plot_to scan scan/scan.csv scan_heatmap.png
 fi
 
 secs=$(( $(date +%s) - start ))

@@ -7,6 +7,7 @@
 #include <unistd.h>
 
 #include <catch2/catch.hpp>
+#include <algorithm>
 #include <cstdio>
 #include <cstdlib>
 #include <fstream>
@@ -131,6 +132,10 @@ TEST_CASE("plot.py ratio: exact ratio points and the certificate's bands, PNG si
   CHECK(svg_has_label(svg, "$R(n) = c_{6}(n)\\,/\\,\\mathrm{sc}_{11}(n)$"));
   CHECK(svg.find("circlet ratio c6 sc11") != std::string::npos);  // caption: the command
   CHECK(svg.find("certificate: ") != std::string::npos);           // legend title: the verdict
+  // Only the certificate's intervals are called certified; their midpoints are labelled as midpoints.
+  CHECK(svg_has_label(svg, "certified limit interval, $n \\equiv 6\\ (\\mathrm{mod}\\ 24)$"));
+  CHECK(svg.find("midpoint of a certified interval") != std::string::npos);
+  CHECK(svg.find("limit on $n") == std::string::npos);  // the old "limit ... (certified)" dashed-line label
 }
 
 TEST_CASE("plot.py ratio --over: exact ratios formed from two `circlet count --ap` outputs, with a certificate", "[plots]") {
@@ -160,8 +165,11 @@ TEST_CASE("plot.py remainder: normalised E(n) with the Deligne and Hecke scales"
   std::string svg = render_both("remainder", d + "/rem.csv", "", d, "remainder");
   CHECK(svg_has_label(svg, "$n$"));
   CHECK(svg_has_label(svg, "$E(n)\\,/\\,X^{(w-1)/2}$,  $X = n + \\Delta$"));
-  CHECK(svg_has_label(svg, "Deligne scale $\\pm X^{(w-1)/2}$"));
-  CHECK(svg_has_label(svg, "Hecke scale $\\pm X^{w/2}$"));
+  // On the axis normalised by X^{(w-1)/2} the two scales are the lines ±1 and the curves ±X^{1/2}.
+  CHECK(svg.find("Deligne scale $|E| = X^{(w-1)/2}$:") != std::string::npos);
+  CHECK(svg.find("the lines $\\pm 1$ here") != std::string::npos);
+  CHECK(svg.find("Hecke scale $|E| = X^{w/2}$:") != std::string::npos);
+  CHECK(svg.find("the curves $\\pm X^{1/2}$ here") != std::string::npos);
   CHECK(svg.find("weight $w = 5/2$") != std::string::npos);  // c6: rank 5
   CHECK(svg.find("circlet remainder c6") != std::string::npos);
 }
@@ -196,8 +204,18 @@ TEST_CASE("plot.py arcs: partial sums against K with the main-term ball and the 
   std::string svg = render_both("arcs", d + "/arcs.csv", extra, d, "arcs");
   CHECK(svg_has_label(svg, "$S_K$"));
   CHECK(svg_has_label(svg, "$K$ (largest denominator $k$ of the major arcs)"));
-  CHECK(svg_has_label(svg, "main term $M(n)$ (ball)"));
+  CHECK(svg.find("main term $M(n)$ = 382910528/27") != std::string::npos);
   CHECK(svg.find("circlet arcs c9") != std::string::npos);
+  if (have_command("main")) {  // the exact count comes from `circlet main --json`
+    CHECK(svg.find("exact count $c_{9}(1000)$ = 14,180,606") != std::string::npos);
+    CHECK(svg.find("|E(n)| = |c_{9}(1000) - M(n)|") != std::string::npos);
+  }
+  // No offset text ("1e7", "+1.418e7") on the axes: tick labels are the values themselves.
+  CHECK(svg.find("1e7") == std::string::npos);
+  CHECK(svg.find("14,000,000") != std::string::npos);
+  // Every partial sum is in the frame, including K = 1 (S_1 = 13329462.99...), so the axis reaches
+  // below 13.4 million (the old zoom showed only 14.1755..14.1888 million and hid K = 1..6).
+  CHECK(svg.find(">13,400,000</text>") != std::string::npos);
 }
 
 TEST_CASE("plot.py arcs: weight 3/2 (sc7), where the tail bound is infinite, still renders and says so", "[plots]") {
@@ -246,10 +264,106 @@ TEST_CASE("plot.py refuses a wrong output type and a table without the kind's co
   REQUIRE(!tmp.path.empty());
   const std::string& d = tmp.path;
   REQUIRE(run(kCirclet + " count c7 --to 10 -o " + d + "/c7.csv >/dev/null 2>&1") == 0);
-  CHECK(run(kPython + " " + kPlot + " ratio " + d + "/c7.csv -o " + d + "/x.pdf 2>" + d + "/e1") == 2);
-  CHECK(slurp(d + "/e1").find("output must end in .png or .svg") != std::string::npos);
+  CHECK(run(kPython + " " + kPlot + " ratio " + d + "/c7.csv -o " + d + "/x.txt 2>" + d + "/e1") == 2);
+  CHECK(slurp(d + "/e1").find("output must end in .png, .svg or .pdf") != std::string::npos);
+  // A `circlet count` table is not arcs output: refused by its recorded command, before any drawing.
   CHECK(run(kPython + " " + kPlot + " arcs " + d + "/c7.csv -o " + d + "/x.png 2>" + d + "/e2") == 2);
-  CHECK(slurp(d + "/e2").find("none of the columns k, K") != std::string::npos);
+  CHECK(slurp(d + "/e2").find("is `circlet count` output; the arcs plot reads `circlet arcs` output") !=
+        std::string::npos);
   struct stat st;
   CHECK(::stat((d + "/x.png").c_str(), &st) != 0);  // nothing written on failure
+}
+
+TEST_CASE("plot.py refuses the wrong input kind with one line and exit status 2", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("remainder");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " remainder c6 --to 50 -o " + d + "/rem.csv >/dev/null 2>&1") == 0);
+  // `plot.py ratio remainder.csv` once drew an empty plot and exited 0.
+  CHECK(run(kPython + " " + kPlot + " ratio " + d + "/rem.csv -o " + d + "/x.png 2>" + d + "/e") == 2);
+  const std::string e = slurp(d + "/e");
+  CHECK(e.rfind("plot.py: error: ", 0) == 0);
+  CHECK(e.find("is `circlet remainder` output; the ratio plot reads `circlet ratio` output") != std::string::npos);
+  CHECK(std::count(e.begin(), e.end(), '\n') == 1);
+  CHECK(run(kPython + " " + kPlot + " scan " + d + "/rem.csv -o " + d + "/x.png 2>/dev/null") == 2);
+  struct stat st;
+  CHECK(::stat((d + "/x.png").c_str(), &st) != 0);
+  // Bad --size / --dpi are refused by the option parser (exit 2).
+  CHECK(run(kPython + " " + kPlot + " remainder " + d + "/rem.csv --size 8 -o " + d + "/y.png 2>/dev/null") == 2);
+  CHECK(run(kPython + " " + kPlot + " remainder " + d + "/rem.csv --dpi 5 -o " + d + "/y.png 2>/dev/null") == 2);
+}
+
+TEST_CASE("plot.py ratio says when a certified class has no plotted n", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("ratio");
+  CIRCLET_NEED_COMMAND("certify");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  // c6 vs sc11: the certificate's classes are n = 6 and n = 0 (mod 24); n = 0..5 reaches only n = 0.
+  REQUIRE(run(kCirclet + " ratio c6 sc11 --ap 1,0 --ap2 1,0 --to 5 -o " + d + "/ratio.csv >/dev/null 2>&1") == 0);
+  REQUIRE(run(kCirclet + " certify c6 sc11 --ap 1,0 --ap2 1,0 -o " + d + "/cert.json >/dev/null 2>&1") == 0);
+  REQUIRE(slurp(d + "/cert.json").find("\"modulus\": \"24\"") != std::string::npos);
+  const std::string svg = render_both("ratio", d + "/ratio.csv", "--cert " + d + "/cert.json", d, "ratio");
+  CHECK(svg.find("no plotted $n$ lies in the class") != std::string::npos);
+  CHECK(svg.find("its first $n$ is 6") != std::string::npos);
+}
+
+TEST_CASE("plot.py relerr: |count/M - 1| against X on log-log axes with reference slopes", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("remainder");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " remainder c9 --to 600 -o " + d + "/rem.csv >/dev/null 2>&1") == 0);
+  const std::string svg = render_both("relerr", d + "/rem.csv", "", d, "relerr");
+  CHECK(svg_has_label(svg, "$X = n + \\Delta$"));
+  CHECK(svg_has_label(svg, "$|c_{9}(n)\\,/\\,M(n) - 1|$"));
+  // c9: w = 4, so the Hecke slope is 1 - w/2 = -1 and the Deligne slope -(w-1)/2 = -3/2.
+  CHECK(svg.find("slope $-1$: Hecke scale $X^{w/2}/M$") != std::string::npos);
+  CHECK(svg.find("slope $-3/2$: Deligne scale $X^{(w-1)/2}/M$") != std::string::npos);
+  CHECK(svg.find("a reference slope, not a bound") != std::string::npos);
+  CHECK(svg.find("Relative error of the main term for $c_{9}(n)$ (weight $w = 4$)") != std::string::npos);
+  // c5 has no cusp part: every row has count = M, and the plot says so instead of drawing nothing silently.
+  REQUIRE(run(kCirclet + " remainder c5 --to 100 -o " + d + "/rem5.csv >/dev/null 2>&1") == 0);
+  const std::string svg5 = render_both("relerr", d + "/rem5.csv", "", d, "relerr5");
+  CHECK(svg5.find("101 rows with count = M exactly") != std::string::npos);
+}
+
+TEST_CASE("plot.py scan: heat maps of the largest pinning prime with a discrete colour bar", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  const std::string scan = std::string(CIRCLET_SOURCE_DIR) + "/results/scan_t6-10_M8/scan.csv";
+  const std::string svg = render_both("scan", scan, "", d, "scan");
+  for (const char* t : {"$t = 6$", "$t = 7$", "$t = 10$"}) CHECK(svg_has_label(svg, t));
+  CHECK(svg_has_label(svg, "$A'$ (progression of $\\mathrm{sc}_{13}$)"));
+  CHECK(svg_has_label(svg, "largest prime $Q$ pinned (NON-CONVERGENT pairs)"));
+  // The colour bar has one tick per prime up to the largest Q of the committed scan (23) and none in
+  // between (the axes' own ticks stop at A = 8): a discrete scale, not a continuous one.
+  for (const char* q : {">11</text>", ">13</text>", ">17</text>", ">19</text>", ">23</text>"})
+    CHECK(svg.find(q) != std::string::npos);
+  for (const char* q : {">9</text>", ">10</text>", ">15</text>", ">21</text>", ">22</text>"})
+    CHECK(svg.find(q) == std::string::npos);
+  CHECK(svg.find("6480 NON-CONVERGENT") != std::string::npos);
+}
+
+TEST_CASE("plot.py writes PDF, and --size/--dpi set the PNG's pixels", "[plots]") {
+  CIRCLET_NEED_PYTHON();
+  CIRCLET_NEED_COMMAND("remainder");
+  const TempDir tmp;
+  REQUIRE(!tmp.path.empty());
+  const std::string& d = tmp.path;
+  REQUIRE(run(kCirclet + " remainder c7 --to 100 -o " + d + "/rem.csv >/dev/null 2>&1") == 0);
+  REQUIRE(run(kPython + " " + kPlot + " remainder " + d + "/rem.csv --size 6,4 --dpi 150 -o " + d + "/r.png -o " + d +
+              "/r.pdf >/dev/null 2>&1") == 0);
+  const PngSize s = png_size(slurp(d + "/r.png"));
+  CHECK(s.width == 900);  // 6 in × 150 dpi
+  CHECK(s.height == 600);
+  const std::string pdf = slurp(d + "/r.pdf");
+  CHECK(pdf.rfind("%PDF-", 0) == 0);
+  CHECK(pdf.size() > 5000);
 }
