@@ -224,9 +224,11 @@ def caption(fig, *provs):
             continue
         line = "%s %s  |  %s  |  %s" % (p.get("program", "circlet"), p.get("version", "?"), p.get("command", "?"),
                                          p.get("date", ""))
+        libs = dict(p.get("libraries") or {})
         for key in ("git", "flint", "arb", "ntl"):
-            if p.get(key):
-                line += "  |  %s %s" % (key, p[key])
+            value = p.get(key) or libs.get(key) or (p.get("git_commit") if key == "git" else None)
+            if value:
+                line += "  |  %s %s" % (key, value)
         width = max(60, int(Frame.size[0] * 16))
         lines.extend(textwrap.wrap(line, width=width, subsequent_indent="    ", break_on_hyphens=False))
     text = "\n".join(lines)

@@ -1,7 +1,12 @@
 #include "core/provenance.hpp"
 
+#include <NTL/version.h>
+#include <arb.h>
+#include <flint/flint.h>
+
 #include <ctime>
 
+#include "circlet/git_commit.hpp"
 #include "circlet/version.hpp"
 
 namespace circlet {
@@ -34,6 +39,10 @@ const std::string& command_line() { return command_line_storage(); }
 Provenance Provenance::now(const std::string& cmd, long precision_bits) {
   Provenance p;
   p.version = kVersion;
+  p.git_commit = kGitCommit;
+  p.flint_version = ::flint_version;  // run-time library versions (the shared objects actually loaded)
+  p.arb_version = ::arb_version;
+  p.ntl_version = NTL_VERSION;      // NTL has no run-time version string: the headers built against
   p.command_line = cmd;
   p.precision_bits = precision_bits;
   std::time_t t = std::time(nullptr);
@@ -46,12 +55,17 @@ Provenance Provenance::now(const std::string& cmd, long precision_bits) {
 nlohmann::json Provenance::to_json() const {
   nlohmann::json j{{"program", program}, {"version", version}, {"command", command_line}, {"date", date_utc}};
   if (precision_bits > 0) j["precision_bits"] = precision_bits;
+  if (!git_commit.empty()) j["git_commit"] = git_commit;
+  if (!flint_version.empty())
+    j["libraries"] = {{"flint", flint_version}, {"arb", arb_version}, {"ntl", ntl_version}};
   return j;
 }
 
 std::string Provenance::csv_comment() const {
   std::string s = "# " + program + " " + version + " | " + command_line + " | " + date_utc;
   if (precision_bits > 0) s += " | prec " + std::to_string(precision_bits) + " bits";
+  if (!git_commit.empty()) s += " | git " + git_commit;
+  if (!flint_version.empty()) s += " | flint " + flint_version + " | arb " + arb_version + " | ntl " + ntl_version;
   return s + "\n";
 }
 
