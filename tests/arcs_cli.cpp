@@ -30,7 +30,7 @@ vector<string> split_lines(const string& s) {
 TEST_CASE("arcs prints one CSV row per k with the enclosure and the main term", "[cli][arcs]") {
   Run r = run("arcs c9 --at 1000 --upto 5");
   REQUIRE(r.status == 0);
-  auto l = split_lines(r.out);
+  auto l = split_lines(circlet::testing::csv_body(r.out));
   REQUIRE(l.size() == 6);
   CHECK(l[0] == "k,coefficient,term,partial_sum,tail_bound,enclosure,main_term");
   // A_2/2^w = 1/16 at n = 1000 (a route (a) value; the tests of arc_terms check it against route (b)).
@@ -65,7 +65,7 @@ TEST_CASE("arcs refuses bad input with one clear line", "[cli][arcs][errors]") {
 TEST_CASE("remainder --to: CSV rows, exact remainders, summary on stderr", "[cli][remainder]") {
   Run r = run("remainder c7 --to 3");
   REQUIRE(r.status == 0);
-  auto l = split_lines(r.out);
+  auto l = split_lines(circlet::testing::csv_body(r.out));
   REQUIRE(l.size() == 5);
   CHECK(l[0] == "n,X,count,main_term,main_term_exact,remainder,remainder_exact,E_deligne,E_hecke,"
                 "certified_bound,within_bound");
@@ -102,7 +102,7 @@ TEST_CASE("remainder refuses bad input with one clear line", "[cli][remainder][e
 TEST_CASE("arcs --gauss adds the route (b) coefficient and checks it", "[cli][arcs]") {
   Run r = run("arcs c7 --at 98 --upto 6 --gauss");
   REQUIRE(r.status == 0);
-  auto l = split_lines(r.out);
+  auto l = split_lines(circlet::testing::csv_body(r.out));
   REQUIRE(l.size() == 7);
   CHECK(l[0] == "k,coefficient,term,partial_sum,tail_bound,enclosure,main_term,coefficient_gauss");
   CHECK(l[2].rfind("2,1/8,", 0) == 0);

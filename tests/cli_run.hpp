@@ -36,4 +36,14 @@ inline CliRun run_circlet(const std::string& args, const std::string& env = "") 
   return r;
 }
 
+/// A CSV table printed on standard output without its first line, the
+/// "# circlet VERSION | COMMAND | DATE | ..." provenance comment every CSV
+/// output starts with (files and standard output alike). Returns "" (so that a
+/// check against the expected table fails) when that line is missing.
+inline std::string csv_body(const std::string& out) {
+  if (out.rfind("# circlet ", 0) != 0) return "";
+  const auto eol = out.find('\n');
+  return eol == std::string::npos ? std::string() : out.substr(eol + 1);
+}
+
 }  // namespace circlet::testing

@@ -30,23 +30,28 @@ TEST_CASE("count --to prints a CSV table to stdout", "[cli][count]") {
   Run r = run("count c7 --to 10");
   REQUIRE(r.status == 0);
   // A053724 (7-cores), n = 0..10.
-  CHECK(r.out == "n,count\n0,1\n1,1\n2,2\n3,3\n4,5\n5,7\n6,11\n7,8\n8,15\n9,16\n10,21\n");
+  CHECK(circlet::testing::csv_body(r.out) == "n,count\n0,1\n1,1\n2,2\n3,3\n4,5\n5,7\n6,11\n7,8\n8,15\n9,16\n10,21\n");
+  // Standard output carries the provenance line too (docs/data-files.md), with the git commit and libraries.
+  CHECK(r.out.rfind("# circlet ", 0) == 0);
+  CHECK(r.out.find(" | git ") < r.out.find('\n'));
+  CHECK(r.out.find(" | flint ") < r.out.find('\n'));
   CHECK(r.err.empty());
 }
 
 TEST_CASE("count --at and --ap", "[cli][count]") {
   Run a = run("count c4 --at 42");
   REQUIRE(a.status == 0);
-  CHECK(a.out == "n,count\n42,14\n");  // A045831(42) = 14
+  CHECK(circlet::testing::csv_body(a.out) == "n,count\n42,14\n");  // A045831(42) = 14
   Run p = run("count c4 --ap 7,2 --to 3");
   REQUIRE(p.status == 0);
-  CHECK(p.out == "k,n,count\n0,2,2\n1,9,4\n2,16,2\n3,23,8\n");  // A045831 at 2, 9, 16, 23
+  CHECK(circlet::testing::csv_body(p.out) == "k,n,count\n0,2,2\n1,9,4\n2,16,2\n3,23,8\n");  // A045831 at 2, 9, 16, 23
 }
 
 TEST_CASE("count prints big integers exactly", "[cli][count]") {
   Run r = run("count c40 --at 5000");
   REQUIRE(r.status == 0);
-  const string v = r.out.substr(r.out.find('\n') + 1);
+  const string body = circlet::testing::csv_body(r.out);
+  const string v = body.substr(body.find('\n') + 1);
   CHECK(v.rfind("5000,", 0) == 0);
   CHECK(v.size() > 30);  // more than 20 digits: beyond 64 bits
   Run t = run("count c40 --to 5000");
@@ -62,14 +67,15 @@ TEST_CASE("count --json has provenance and exact rows", "[cli][count]") {
   CHECK(j["provenance"]["command"].get<string>().find("count sc13") != string::npos);
   CHECK(j["columns"] == nlohmann::json{"k", "n", "count"});
   REQUIRE(j["rows"].size() == 6);
-  CHECK(j["rows"][0] == nlohmann::json{0, 1, 1});
+  CHECK(j["rows"][0] == nlohmann::json{0, 1, "1"});  // counts are strings (docs/data-files.md), n and k numbers
   CHECK(j["rows"][5][1] == 11);
+  CHECK(j["rows"][5][2].is_string());
   Run big = run("count c40 --at 5000 --json");
   REQUIRE(big.status == 0);
-  // The big count is a JSON number literal with all its digits.
+  // The big count is a JSON string with all its digits.
   Run csv = run("count c40 --at 5000");
   const string digits = csv.out.substr(csv.out.rfind(',') + 1, csv.out.size() - csv.out.rfind(',') - 2);
-  CHECK(big.out.find("[5000," + digits + "]") != string::npos);
+  CHECK(big.out.find("[5000,\"" + digits + "\"]") != string::npos);
 }
 
 TEST_CASE("count -o writes the file atomically with a provenance line", "[cli][count]") {

@@ -23,7 +23,7 @@ std::string run(const std::string& args, int* rc, std::string* err = nullptr) {
 
 TEST_CASE("ratio prints exact counts, exact ratios, local factors and the verdict", "[progression][ratio][cli]") {
   int rc = 0;
-  std::string csv = run("ratio c7 sc13 --ap 2,1 --ap2 3,2 --to 30", &rc);
+  std::string csv = circlet::testing::csv_body(run("ratio c7 sc13 --ap 2,1 --ap2 3,2 --to 30", &rc));
   REQUIRE(rc == 0);
   std::istringstream in(csv);
   std::string line;

@@ -118,7 +118,7 @@ void run_arcs(const ArcsOptions& opt) {
     j["main_term_in_enclosure"] = contained;
     out << j.dump(2) << "\n";
   } else {
-    if (sink.to_file()) out << prov.csv_comment();
+    out << prov.csv_comment();  // on standard output too: a redirected table keeps its provenance
     // Every row carries the enclosure after k terms and the main term, so that
     // convergence can be plotted from the CSV alone.
     const std::string main_text = ball_text(M.ball, dg);

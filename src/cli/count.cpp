@@ -117,7 +117,7 @@ void run_count(const CountOptions& opt) {
     head["columns"] = has_ap ? nlohmann::json{"k", "n", "count"} : nlohmann::json{"n", "count"};
     std::string h = head.dump(2);
     // Append the rows by hand: counts are exact integers of any size, written as
-    // JSON number literals (nlohmann's numbers are limited to 64 bits).
+    // JSON strings like every exact value of every command (docs/data-files.md).
     h.erase(h.find_last_of('}'));
     while (!h.empty() && (h.back() == '\n' || h.back() == ' ')) h.pop_back();
     buf += h;
@@ -130,13 +130,14 @@ void run_count(const CountOptions& opt) {
       }
       buf += std::to_string(n_of(i));
       buf += ',';
+      buf += '"';
       append_decimal(buf, series.at(n_of(i)));
-      buf += ']';
+      buf += "\"]";
       flush_if_big();
     }
     buf += "\n  ]\n}\n";
   } else {
-    if (sink.to_file()) buf += prov.csv_comment();
+    buf += prov.csv_comment();  // on standard output too: a redirected table keeps its provenance
     buf += has_ap ? "k,n,count\n" : "n,count\n";
     for (long i = 0; i < rows; ++i) {
       if (has_ap) {

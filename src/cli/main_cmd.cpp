@@ -179,7 +179,7 @@ void run_single(const MainOptions& opt, const Family& family, const QuadraticMod
 }
 
 void run_table(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out,
-               bool to_file) {
+               bool /*to_file: the provenance line goes to files and standard output alike*/) {
   // --at (any size) is handled by run_single; tables are limited to 64-bit n.
   const RowSelection sel = RowSelection::parse(opt.to, "", opt.ap, /*allow_at=*/false);
   const bool has_ap = sel.progression;
@@ -212,7 +212,7 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
   long short_rows = 0;
   nlohmann::json jrows = nlohmann::json::array();
   if (!opt.json) {
-    if (to_file) buf += prov.csv_comment();
+    buf += prov.csv_comment();  // on standard output too: a redirected table keeps its provenance
     buf += has_ap ? "k,n" : "n";
     if (with_count) buf += ",count";
     buf += "," + main_col;

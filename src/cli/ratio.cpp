@@ -141,7 +141,7 @@ void run_ratio(const RatioCliOptions& o) {
                      {"ap2", ap2.str()}, {"weight", pair.weight_str()}, {"rows", rows}, {"summary", summary}};
     text = j.dump(1) + "\n";
   } else {
-    text = (sink.to_file() ? prov.csv_comment() : std::string()) + csv;
+    text = prov.csv_comment() + csv;  // on standard output too: a redirected table keeps its provenance
   }
   sink.stream() << text;
   sink.finish();

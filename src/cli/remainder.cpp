@@ -154,7 +154,7 @@ void run_remainder(const RemainderOptions& opt) {
     j["rows"] = rows;
     out << j.dump(2) << "\n";
   } else {
-    if (sink.to_file()) out << prov.csv_comment();
+    out << prov.csv_comment();  // on standard output too: a redirected table keeps its provenance
     out << (has_ap ? "k," : "") << "n,X,count,main_term,main_term_exact,remainder,remainder_exact,E_deligne,E_hecke"
         << (cert ? ",certified_bound,within_bound" : "") << "\n";
     for (size_t i = 0; i < table.rows.size(); ++i) {
