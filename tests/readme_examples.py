@@ -11,6 +11,11 @@ compared byte for byte with the command's standard output followed by its
 standard error (a command that redirects its standard output to a file shows
 only standard error). Exit status 0 when every example matches, 1 otherwise
 (with a unified diff of each mismatch), 2 for bad usage or no examples.
+
+One thing differs from run to run and is masked on both sides before the
+comparison: in a "# circlet ..." provenance line (docs/data-files.md), the
+date of the run and the git commit of the build become DATE and COMMIT.
+Everything else, including the rest of that line, must match byte for byte.
 """
 import difflib
 import os
@@ -48,6 +53,20 @@ def examples(readme_text):
         i += 1
 
 
+_PROV_DATE = re.compile(r"\| \d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ \|")
+_PROV_GIT = re.compile(r"\| git [0-9a-f]{7,40}\b|\| git unknown\b")
+
+
+def mask(text):
+    """The output with the date and commit of every provenance line replaced (see above)."""
+    out = []
+    for line in text.split("\n"):
+        if line.startswith("# circlet "):
+            line = _PROV_GIT.sub("| git COMMIT", _PROV_DATE.sub("| DATE |", line))
+        out.append(line)
+    return "\n".join(out)
+
+
 def main(argv):
     if len(argv) != 3:
         print(__doc__.strip().split("\n")[2], file=sys.stderr)
@@ -64,13 +83,13 @@ def main(argv):
             cmd = re.sub(r"(^|\s)build/circlet(?=\s|$)", lambda m: m.group(1) + binary, command)
             run = subprocess.run(["/bin/sh", "-c", cmd], cwd=scratch, capture_output=True)
             got = run.stdout.decode("utf-8", "replace") + run.stderr.decode("utf-8", "replace")
-            if got == expected and run.returncode == 0:
+            if mask(got) == mask(expected) and run.returncode == 0:
                 print(f"ok    README:{lineno}  $ {command}")
                 continue
             failed += 1
             print(f"FAIL  README:{lineno}  $ {command}  (exit status {run.returncode})")
             sys.stdout.writelines(difflib.unified_diff(
-                expected.splitlines(True), got.splitlines(True), "README (shown)", "program (printed)"))
+                mask(expected).splitlines(True), mask(got).splitlines(True), "README (shown)", "program (printed)"))
     print(f"{len(cases) - failed} of {len(cases)} README examples match byte for byte")
     return 1 if failed else 0
 
