@@ -218,19 +218,27 @@ class Frame:
 
 
 def caption(fig, *provs):
-    lines = []
+    """Provenance at the bottom of the figure: one line per input (version, git commit, command,
+    date), then the library versions once."""
+    lines, libs = [], None
+    width = max(60, int(Frame.size[0] * 16))
     for p in provs:
         if not p:
             continue
-        line = "%s %s  |  %s  |  %s" % (p.get("program", "circlet"), p.get("version", "?"), p.get("command", "?"),
-                                         p.get("date", ""))
-        libs = dict(p.get("libraries") or {})
-        for key in ("git", "flint", "arb", "ntl"):
-            value = p.get(key) or libs.get(key) or (p.get("git_commit") if key == "git" else None)
-            if value:
-                line += "  |  %s %s" % (key, value)
-        width = max(60, int(Frame.size[0] * 16))
+        head = "%s %s" % (p.get("program", "circlet"), p.get("version", "?"))
+        git = p.get("git") or p.get("git_commit")
+        if git:
+            head += " (git %s)" % git
+        line = "%s  |  %s  |  %s" % (head, p.get("command", "?"), p.get("date", ""))
         lines.extend(textwrap.wrap(line, width=width, subsequent_indent="    ", break_on_hyphens=False))
+        found = dict(p.get("libraries") or {})
+        for key in ("flint", "arb", "ntl"):
+            if p.get(key):
+                found[key] = p[key]
+        if found and libs is None:
+            libs = ", ".join("%s %s" % (k, found[k]) for k in ("flint", "arb", "ntl") if found.get(k))
+    if libs:
+        lines.append("built with " + libs)
     text = "\n".join(lines)
     fig.text(0.01, 0.005, text, fontsize=6.5, family="monospace", ha="left", va="bottom", color="#6b665f",
              gid="caption")
