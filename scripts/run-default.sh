@@ -6,7 +6,7 @@
 #   scan        scan/ (scan.csv, scan.json, summary.txt)  (circlet scan, t = 6..8, modulus 4)
 #   certificates cert_*.json, each re-checked by circlet verify
 #   tables      ratio_*.csv, remainder_*.csv, arcs_*.csv, main_*.json
-#   plots       ratio_*.png, remainder_*.png, arcs_*.png  (scripts/plot.py; caption = provenance)
+#   plots       ratio_*.png, remainder_*.png, relerr_*.png, arcs_*.png, scan_heatmap.png (scripts/plot.py; caption = provenance)
 #   JOB.txt     what ran, when, with which binary
 # A step whose command is not in this build is skipped with a message; a
 # command that fails stops the job. Finishes in well under a minute after the build.
@@ -87,7 +87,7 @@ else
   step "'circlet certify' is not in this build: certificates skipped"
 fi
 
-# 4. The three standard plots.
+# 4. The standard plots.
 # Ratio: c6(n)/sc11(n), n = 0..200, with the certificate's bands.
 if have ratio; then
   step "ratio c6/sc11 and its plot"
