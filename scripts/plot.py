@@ -221,7 +221,7 @@ def caption(fig, *provs):
     """Provenance at the bottom of the figure: one line per input (version, git commit, command,
     date), then the library versions once."""
     lines, libs = [], None
-    width = max(60, int(Frame.size[0] * 16))
+    width = max(60, int(Frame.size[0] * 72 / (6.5 * 0.6)) - 6)  # monospace 6.5 pt: about 0.6 em per character
     for p in provs:
         if not p:
             continue
@@ -229,7 +229,7 @@ def caption(fig, *provs):
         git = p.get("git") or p.get("git_commit")
         if git:
             head += " (git %s)" % git
-        line = "%s  |  %s  |  %s" % (head, p.get("command", "?"), p.get("date", ""))
+        line = "%s | %s | %s" % (head, p.get("command", "?"), p.get("date", ""))
         lines.extend(textwrap.wrap(line, width=width, subsequent_indent="    ", break_on_hyphens=False))
         found = dict(p.get("libraries") or {})
         for key in ("flint", "arb", "ntl"):
@@ -242,6 +242,12 @@ def caption(fig, *provs):
     text = "\n".join(lines)
     fig.text(0.01, 0.005, text, fontsize=6.5, family="monospace", ha="left", va="bottom", color="#6b665f",
              gid="caption")
+    # Keep the axes (tick labels and x label) above a long caption.
+    line_height = 6.5 * 1.25 / (Frame.size[1] * 72)
+    needed = 0.012 + len(lines) * line_height + 0.085 * 6.0 / Frame.size[1]
+    if needed > fig.subplotpars.bottom:
+        top = fig.subplotpars.top
+        fig.subplots_adjust(bottom=min(needed, top - 0.2))
     return text
 
 
