@@ -39,6 +39,7 @@ struct MainOptions {
   bool fast = false;
   bool json = false;
   bool no_count = false;
+  double class_number_steps = 3e8;
   std::string output;
 };
 
@@ -138,7 +139,9 @@ void run_single(const MainOptions& opt, const Family& family, const QuadraticMod
     return;
   }
 
-  CertifiedMainTerm c = main_term_certified(model, n, opt.digits, 4096);
+  MainTermOptions mo;
+  mo.max_class_number_steps = opt.class_number_steps;
+  CertifiedMainTerm c = main_term_certified(model, n, opt.digits, 4096, mo);
   const MainTerm& m = c.term;
   std::string status = m.exact ? "exact rational"
                                : (c.certified ? "ball, " + std::to_string(opt.digits) + " digits certified"
@@ -195,6 +198,7 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
   const slong prec = bits_for_digits(opt.digits);
   MainTermOptions mo;
   mo.with_parts = false;
+  mo.max_class_number_steps = opt.class_number_steps;
   // Odd rank ≥ 5: all L-values of the table in one pass over the primes
   // (main_term_batch.hpp); rows whose ball misses the digits are redone singly.
   std::vector<Arb> batch;
@@ -329,6 +333,8 @@ const Registration registration{CommandSpec{
       cmd->add_flag("--explain", opt->explain, "print the parts: X, sigma_inf, character, L-value, special primes");
       cmd->add_flag("--fast", opt->fast, "floating-point main term (NOT CERTIFIED), for bulk tables");
       cmd->add_flag("--no-count", opt->no_count, "do not compute exact counts");
+      cmd->add_option("--class-number-steps", opt->class_number_steps,
+                      "weight 3/2: largest class-number sieve (about sqrt(|D|/3) steps; default 3e8, a few seconds)");
       cmd->add_flag("--json", opt->json, "JSON output with provenance instead of text/CSV");
       cmd->add_option("-o,--output", opt->output, "write to FILE (atomically) instead of standard output");
       cmd->callback([opt]() { run_main(*opt); });

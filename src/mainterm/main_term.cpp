@@ -5,11 +5,13 @@
 #include <flint/ulong_extras.h>
 
 #include <algorithm>
+#include <cstdio>
 #include <cmath>
 #include <map>
 #include <mutex>
 
 #include "core/error.hpp"
+#include "mainterm/class_number.hpp"
 #include "mainterm/dirichlet_l.hpp"
 #include "mainterm/singular_integral.hpp"
 #include "quadratic/local_density.hpp"
@@ -70,6 +72,17 @@ const EvenRankData& even_rank_data(const QuadraticModel& model) {
 }
 
 }  // namespace
+
+std::string class_number_refusal(const Fmpz& f, double max_steps) {
+  const double steps = hurwitz_class_number_steps(f);
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.3g", steps);
+  std::string msg = "the weight-3/2 main term needs the class number H(" + f.str() + "), about " + buf +
+                    " sieve steps (cost grows like sqrt|D|)";
+  if (!hurwitz_class_number_in_range(f)) return msg + ": beyond the counting route's range |D| < 3*2^64";
+  std::snprintf(buf, sizeof buf, "%.0f", std::ceil(steps));
+  return msg + "; allow it with --class-number-steps " + buf;
+}
 
 void check_main_term_input(const QuadraticModel& model, const Fmpz& n) {
   if (model.rank < 2)
@@ -133,14 +146,24 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
 
   Fmpz f;
   fmpz_abs(f.get(), P.discriminant.get());
-  const bool exact_route = even || fmpz_cmp_ui(f.get(), options.max_exact_conductor) <= 0;
+  // Weight 3/2: L(1, χ) = π H(f)/sqrt(f) (d0 < 0 fundamental, R = H(f)), with H(f) from
+  // the counting route of class_number.hpp at cost ≈ sqrt(f/3): exact at every size
+  // below the user's limit.
+  const bool class_number_route = !even && s == 1 && hurwitz_class_number_in_range(f) &&
+                                  hurwitz_class_number_steps(f) <= options.max_class_number_steps;
+  if (!even && s == 1 && !class_number_route && fmpz_cmp_ui(f.get(), options.max_exact_conductor) > 0)
+    throw UserError(class_number_refusal(f, options.max_class_number_steps));
+  const bool exact_route = even || class_number_route || fmpz_cmp_ui(f.get(), options.max_exact_conductor) <= 0;
   const bool need_balls = options.with_parts || (!exact_route && !options.skip_l_value);
   if (need_balls) singular_integral(P.sigma_inf.get(), r, model.det_gram, P.X, prec);
 
   if (exact_route) {
-    Fmpq R = even ? ed->R : dirichlet_l_rational(P.discriminant, s);
+    Fmpq R = even ? ed->R : (class_number_route ? hurwitz_class_number(f) : dirichlet_l_rational(P.discriminant, s));
     P.L_rational = R;
-    P.L_route = "exact: generalised Bernoulli number B_{k,χ} (conductor " + f.str() + ")";
+    P.L_route = class_number_route
+                    ? "exact: class number, H(" + f.str() + ") by counting reduced forms (" +
+                          std::to_string((long)hurwitz_class_number_steps(f)) + " sieve steps)"
+                    : "exact: generalised Bernoulli number B_{k,χ} (conductor " + f.str() + ")";
     if (need_balls) dirichlet_l_from_rational(P.L_value.get(), R, P.discriminant, s, prec);
     Fmpq M;
     Fmpz xpow, fac;

@@ -18,8 +18,10 @@
 //      M(n) = X^k · 4^k k! · R · C / ((2k)! · Z · f · g)          (exact rational)
 //    when f is small enough for the Bernoulli route; otherwise a ball
 //    σ_∞ · L(k, χ)/ζ(2k) · C with L from its Euler product (k ≥ 2).
-//    For r = 3 (weight 3/2) L(1, χ) is a class number: M(n) is exact whenever
-//    the conductor is below the limit, and indeterminate beyond it.
+//    For r = 3 (weight 3/2) L(1, χ) = π H(f)/sqrt(f) is a class number, counted
+//    exactly at cost ≈ sqrt(f/3) (class_number.hpp): M(n) is exact at every n
+//    whose cost is below MainTermOptions::max_class_number_steps; beyond it
+//    main_term refuses with a UserError that states the cost and the option.
 #include <optional>
 #include <string>
 #include <vector>
@@ -63,6 +65,9 @@ struct MainTerm {
 struct MainTermOptions {
   /// Largest conductor for the exact (Bernoulli) route of odd-rank L-values: cost O(f).
   ulong max_exact_conductor = 2000000;
+  /// Weight 3/2: largest number of sieve steps (≈ sqrt(|d0|/3)) for the class
+  /// number; 3·10^8 steps take a few seconds. The CLI's --class-number-steps.
+  double max_class_number_steps = 3e8;
   /// Largest prime of the Euler product for the ball route.
   ulong max_euler_prime = 10000000;
   /// Compute σ_∞ and the L-value balls even on the exact path (for --explain).
@@ -71,6 +76,9 @@ struct MainTermOptions {
   /// with_parts, without σ_∞; ball indeterminate). Used by main_term_batch, which computes the L-values together.
   bool skip_l_value = false;
 };
+
+/// The refusal message for a weight-3/2 class number above `max_steps`: the cost and the option that lifts it.
+std::string class_number_refusal(const Fmpz& f, double max_steps);
 
 /// Throws UserError when the family's rank is below 2 (no main term of this
 /// shape) or when X = n + Δ ≤ 0.
