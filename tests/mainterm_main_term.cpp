@@ -213,6 +213,7 @@ TEST_CASE("main term: certified digits are reached, or failure is reported", "[m
   QuadraticModel m = model_of("c6");
   MainTermOptions o;
   o.max_exact_conductor = 0;
+  o.max_divisor_sum_steps = 0;  // force the Euler product
   o.max_euler_prime = 1000000;
   // k = 2, P = 10^6: tail ε ≈ 1.26·2/(log P · P) ≈ 1.8e−7, so 6 digits are reachable, 40 are not.
   CertifiedMainTerm c = main_term_certified(m, Fmpz(1000000), 6, 512, o);
@@ -221,6 +222,9 @@ TEST_CASE("main term: certified digits are reached, or failure is reported", "[m
   CertifiedMainTerm d = main_term_certified(m, Fmpz(1000000), 40, 512, o);  // beyond the Euler cap
   CHECK(!d.certified);
   CHECK(d.prec <= 512);
+  // The capped prime bound limits the accuracy, so the driver stops after one try.
+  CHECK(d.term.parts.accuracy_limited);
+  CHECK(d.prec == (slong)std::ceil(40 * 3.3219280948873623) + 1 + 20);
   CertifiedMainTerm e = main_term_certified(model_of("c9"), Fmpz::from_str("1000000000000000000"), 30);
   CHECK(e.certified);
 }
