@@ -39,13 +39,21 @@ TEST_CASE("circlet main: --explain lists the parts", "[mainterm][cli]") {
   CHECK(r.out.find("special primes") != std::string::npos);
 }
 
-TEST_CASE("circlet main: tables as CSV and JSON, fast path labelled", "[mainterm][cli]") {
+TEST_CASE("circlet main: tables as CSV and JSON, exact values exact", "[mainterm][cli]") {
   Run r = run("main c5 --to 4");
   CHECK(r.status == 0);
   CHECK(r.out == "n,count,main,remainder\n0,1,1,0\n1,1,1,0\n2,2,2,0\n3,3,3,0\n4,5,5,0\n");
-  Run a = run("main sq5 --ap 3,1 --to 2 --fast");
+  // r_5 = M exactly (tests/mainterm_main_term.cpp checks it against θ(q)^5): remainders 0.
+  Run a = run("main sq5 --ap 3,1 --to 2");
   CHECK(a.status == 0);
-  CHECK(a.out.find("main_fast_not_certified") != std::string::npos);
+  CHECK(a.out == "k,n,count,main,remainder\n0,1,10,10,0\n1,4,90,90,0\n2,7,320,320,0\n");
+  // Weight 5/2 tables are exact rationals (c_6(10) = 12, M = 131/10 as in `main c6 --at 10`).
+  Run c6 = run("main c6 --to 12");
+  CHECK(c6.status == 0);
+  CHECK(c6.out.find("10,12,131/10,-11/10\n") != std::string::npos);
+  CHECK(c6.out.find("+/-") == std::string::npos);
+  Run f = run("main c6 --to 3 --fast");
+  CHECK(f.status != 0);  // the uncertified path is gone: the certified table is the fast one
   Run j = run("main sq4 --to 3 --json");
   CHECK(j.status == 0);
   CHECK(j.out.find("\"provenance\"") != std::string::npos);

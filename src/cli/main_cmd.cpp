@@ -1,5 +1,5 @@
 // `circlet main FAMILY (--at N | --to N | --ap A,B --to K) [--digits D] [--explain]
-//                      [--fast] [--json] [-o FILE]`:
+//                      [--json] [-o FILE]`:
 // the circle-method main term M(n) (src/mainterm/main_term.hpp), exact or as a
 // certified ball, next to the exact count (series engine) and the remainder.
 #include <algorithm>
@@ -36,7 +36,6 @@ struct MainOptions {
   std::string to, at, ap;
   long digits = 15;
   bool explain = false;
-  bool fast = false;
   bool json = false;
   bool no_count = false;
   double class_number_steps = 3e8;
@@ -120,25 +119,6 @@ void run_single(const MainOptions& opt, const Family& family, const QuadraticMod
   Fmpz count;
   if (cheap) count = family_series(family, fmpz_get_si(n.get())).value(fmpz_get_si(n.get()));
 
-  if (opt.fast) {
-    double M = main_term_fast(model, n);
-    if (opt.json) {
-      nlohmann::json j;
-      j["provenance"] = Provenance::now(command_line()).to_json();
-      j["family"] = family.name();
-      j["n"] = n.str();
-      j["main_fast_not_certified"] = M;
-      if (cheap) j["count"] = count.str();
-      out << j.dump(2) << "\n";
-    } else {
-      out << "family      " << family.name() << " (" << family.description() << ")\n";
-      out << "n           " << n.str() << "\n";
-      out << "main term   " << M << "   (floating point, NOT CERTIFIED)\n";
-      if (cheap) out << "count       " << count.str() << "\n";
-    }
-    return;
-  }
-
   MainTermOptions mo;
   mo.max_class_number_steps = opt.class_number_steps;
   CertifiedMainTerm c = main_term_certified(model, n, opt.digits, 4096, mo);
@@ -199,19 +179,14 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
   MainTermOptions mo;
   mo.with_parts = false;
   mo.max_class_number_steps = opt.class_number_steps;
-  // Odd rank ≥ 5: all L-values of the table in one pass over the primes
-  // (main_term_batch.hpp); rows whose ball misses the digits are redone singly.
-  std::vector<Arb> batch;
-  if (!opt.fast && model.rank % 2 == 1 && model.rank >= 5) {
-    const slong bits = (slong)(opt.digits * 3.3219280948873623) + 2;
-    // Capped so that the one pass over the primes stays cheap (about 6 certified
-    // digits at k = 2, far more for k ≥ 3); rows short of --digits are counted below.
-    const ulong P = std::min<ulong>(main_term_batch_prime_bound(model.rank, bits), kTableMaxPrime);
-    batch = main_term_batch(model, has_ap ? sel.prog.B : 0, has_ap ? sel.prog.A : 1, rows, P, prec);
-  }
-  const Provenance prov = Provenance::now(command_line(), opt.fast ? 53 : prec);
-  std::string main_col = opt.fast ? "main_fast_not_certified" : "main";
-  std::string rem_col = opt.fast ? "remainder_fast_not_certified" : "remainder";
+  // Exact rows (even rank, weights 3/2 and 5/2) on two threads; odd rank ≥ 7 as balls
+  // from one pass over the primes p ≤ kTableMaxPrime (main_term_batch.hpp).
+  const slong bits = (slong)(opt.digits * 3.3219280948873623) + 2;
+  const std::vector<TableMainTerm> table =
+      main_term_table(model, has_ap ? sel.prog.B : 0, has_ap ? sel.prog.A : 1, rows, bits, kTableMaxPrime, prec, mo);
+  const Provenance prov = Provenance::now(command_line(), prec);
+  const std::string main_col = "main";
+  const std::string rem_col = "remainder";
   std::string buf;
   long short_rows = 0;
   nlohmann::json jrows = nlohmann::json::array();
@@ -231,26 +206,11 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
     if (fmpq_sgn(X.get()) <= 0) {
       main_s = "";
       rem_s = "";
-    } else if (opt.fast) {
-      double M = main_term_fast(model, fn);
-      std::ostringstream s1, s2;
-      s1.precision(17);
-      s2.precision(17);
-      s1 << M;
-      main_s = s1.str();
-      if (with_count) {
-        s2 << fmpz_get_d(series.at(n)) - M;
-        rem_s = s2.str();
-      }
     } else {
+      const TableMainTerm& t = table[i];
       MainTerm m;
-      if (!batch.empty()) {
-        m.ball = batch[i];
-        // an exact zero (local obstruction) stays exact
-        if (arb_is_zero(m.ball)) m.exact = Fmpq(0);
-      } else {
-        m = main_term(model, fn, prec, mo);
-      }
+      m.exact = t.exact;
+      m.ball = t.ball;
       if (!m.exact && arb_rel_accuracy_bits(m.ball) < (slong)(opt.digits * 3.32)) ++short_rows;
       main_s = main_text(m, opt.digits);
       if (with_count) {
@@ -286,15 +246,15 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
   }
   if (short_rows > 0)
     std::cerr << "circlet main: note: " << short_rows << " rows have fewer than " << opt.digits
-              << " certified digits (their balls are still rigorous; the Euler product of tables stops at p <= "
-              << kTableMaxPrime << ", and L(1, chi) needs the exact route)\n";
+              << " certified digits (their balls are still rigorous; for odd rank >= 7 the Euler product of large tables "
+                 "stops at p <= "
+              << kTableMaxPrime << "; main --at N certifies more)\n";
   if (opt.json) {
     nlohmann::json j;
     j["provenance"] = prov.to_json();
     j["rows_below_requested_digits"] = short_rows;
     j["family"] = family.name();
-    j["certified"] = !opt.fast;
-    if (opt.fast) j["note"] = "main terms from the floating-point path: NOT CERTIFIED";
+    j["certified"] = true;
     j["rows"] = std::move(jrows);
     out << j.dump(2) << "\n";
   } else {
@@ -331,7 +291,6 @@ const Registration registration{CommandSpec{
       cmd->add_option("--ap", opt->ap, "progression A,B: rows n = A*k+B, k = 0..K (needs --to K)");
       cmd->add_option("--digits", opt->digits, "significant digits to certify for balls (default 15)");
       cmd->add_flag("--explain", opt->explain, "print the parts: X, sigma_inf, character, L-value, special primes");
-      cmd->add_flag("--fast", opt->fast, "floating-point main term (NOT CERTIFIED), for bulk tables");
       cmd->add_flag("--no-count", opt->no_count, "do not compute exact counts");
       cmd->add_option("--class-number-steps", opt->class_number_steps,
                       "weight 3/2: largest class-number sieve (about sqrt(|D|/3) steps; default 3e8, a few seconds)");

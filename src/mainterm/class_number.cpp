@@ -89,7 +89,7 @@ struct CountResult {
 
 // Sieves a ∈ [lo, hi] (segments of S), adding into res.
 void count_range(u128 N, ulong lo, ulong hi, ulong A1, const std::vector<SievePrime>& primes, CountResult& res) {
-  const ulong S = 1 << 16;
+  const ulong S = std::min<ulong>(1 << 16, hi - lo + 1);  // small calls: no large allocation
   std::vector<ulong> rem(S), val(S);
   n_factor_t fac;
   for (ulong L = lo; L <= hi; L += S) {

@@ -236,7 +236,7 @@ Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
   };
   // σ_1(m_b) for j in [jlo, jhi], summed with multiplicity 2 for b ≠ 0 (b and −b).
   auto sieve = [&](ulong jlo, ulong jhi, const std::vector<Root>& roots, u128& total) {
-    const ulong S = 1 << 16;
+    const ulong S = std::min<ulong>(1 << 16, jhi - jlo + 1);  // small calls: no large allocation
     std::vector<ulong> rem(S), val(S);
     for (ulong L = jlo; L <= jhi; L += S) {
       const ulong R = std::min<ulong>(jhi, L + S - 1);

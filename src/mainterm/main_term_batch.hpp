@@ -14,9 +14,11 @@
 // plus the ball radius of its evaluation, < 2^{−57}), so the sum's error is at
 // most (number of primes)·2^{−56}, added to the radius together with the tail
 // bound ε(P, k) of dirichlet_l_euler_tail.
+#include <optional>
 #include <vector>
 
 #include "core/flint_types.hpp"
+#include "mainterm/main_term.hpp"
 #include "quadratic/model.hpp"
 
 namespace circlet {
@@ -30,5 +32,22 @@ std::vector<Arb> main_term_batch(const QuadraticModel& model, long first, long s
 /// The prime bound P that makes the Euler-product tail of an odd-rank batch
 /// below the relative accuracy 2^{−bits} (k ≥ 2), as used by tables.
 ulong main_term_batch_prime_bound(int rank, slong bits);
+
+/// One row of a main-term table: exact when the mathematics makes it rational
+/// and the route is affordable, a ball otherwise; invalid when X ≤ 0.
+struct TableMainTerm {
+  bool valid = false;
+  std::optional<Fmpq> exact;
+  Arb ball;  // contains M(n); the exact value when `exact` is set
+};
+
+/// The rows M(first + step·i), i = 0..count−1, for tables (`main --to`, `remainder`):
+/// exact row by row for even rank and for weights 3/2 and 5/2 (class numbers,
+/// divisor sums: cost ≈ sqrt(X) per row), on two threads; odd rank ≥ 7 by
+/// main_term_batch with the prime bound main_term_batch_prime_bound(rank, bits)
+/// capped at max_prime (balls). `prec` is the working precision of the balls.
+std::vector<TableMainTerm> main_term_table(const QuadraticModel& model, long first, long step, long count,
+                                           slong bits, ulong max_prime, slong prec,
+                                           const MainTermOptions& options = {});
 
 }  // namespace circlet
