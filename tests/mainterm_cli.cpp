@@ -75,3 +75,20 @@ TEST_CASE("circlet main: bad input is a user error with one clear line", "[maint
   r = run("main c5 --at 10 --digits 0");
   CHECK(r.status == 2);
 }
+
+TEST_CASE("circlet main: factoring a huge X gives up under --factor-timeout", "[mainterm][cli]") {
+  // X = 10^100 + Δ needs the quadratic sieve for far longer than a second: the child
+  // process is stopped and the main term is reported unknown, exit status 0.
+  const std::string n = "1" + std::string(100, '0');
+  Run r = run("main c6 --at " + n + " --factor-timeout 1");
+  CHECK(r.status == 0);
+  CHECK(r.out.find("main term   unknown (X could not be factored in the time allowed: --factor-timeout 1 s)") !=
+        std::string::npos);
+  Run bad = run("main c6 --at 5 --factor-timeout 0");
+  CHECK(bad.status == 2);
+  CHECK(bad.out.find("--factor-timeout must be a positive number of seconds") != std::string::npos);
+  // Below the threshold the result is computed in the same process as before.
+  Run big = run("main c9 --at 1" + std::string(30, '0'));
+  CHECK(big.status == 0);
+  CHECK(big.out.find("(exact rational)") != std::string::npos);
+}
