@@ -13,6 +13,7 @@
 #include "arcs/certified_bound.hpp"
 #include "arcs/remainder.hpp"
 #include "cli/command.hpp"
+#include "cli/progress_line.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
 #include "core/provenance.hpp"
@@ -83,7 +84,11 @@ void run_remainder(const RemainderOptions& opt) {
   SeriesPlan plan = plan_family_series(family, n_max);
   check_resources(plan);
   OutputSink sink(opt.output);
-  const IntegerSeries series = compute_series(plan);
+  IntegerSeries series;
+  {
+    ProgressLine line("remainder", (double)(n_max + 1), "coeff");
+    series = compute_series(plan, [&line](const std::string& stage, double f) { line.update(stage, f); });
+  }
   std::vector<Fmpz> counts;
   counts.reserve(ns.size());
   for (const auto& n : ns) counts.push_back(series.value(fmpz_get_si(n.get())));
@@ -93,9 +98,12 @@ void run_remainder(const RemainderOptions& opt) {
   // pass over the primes for odd rank ≥ 7, truncated for the printed --digits):
   // linear in the number of rows.
   const long first = has_ap ? sel.prog.B : 0, step = has_ap ? sel.prog.A : 1;
-  const std::vector<TableMainTerm> mt =
-      main_term_table(model, first, step, K + 1, (slong)(opt.digits * 3.3219280948873623) + 10,
-                      kTableMaxPrime, prec);
+  std::vector<TableMainTerm> mt;
+  {
+    ProgressLine line("remainder", (double)(K + 1), "rows");
+    mt = main_term_table(model, first, step, K + 1, (slong)(opt.digits * 3.3219280948873623) + 10, kTableMaxPrime,
+                         prec, {}, [&line](double f) { line.update("main terms", f); });
+  }
   auto M = [&](const Fmpz& n) {
     const TableMainTerm& t = mt[(fmpz_get_si(n.get()) - first) / step];
     CIRCLET_ASSERT(t.valid, "remainder: no main term for a row with X > 0");

@@ -224,7 +224,8 @@ std::vector<Arb> main_term_batch(const QuadraticModel& model, long first, long s
 }
 
 std::vector<TableMainTerm> main_term_table(const QuadraticModel& model, long first, long step, long count,
-                                           slong bits, ulong max_prime, slong prec, const MainTermOptions& options) {
+                                           slong bits, ulong max_prime, slong prec, const MainTermOptions& options,
+                                           const std::function<void(double)>& progress) {
   CIRCLET_ASSERT(first >= 0 && step >= 1 && count >= 0, "main_term_table: bad row range");
   std::vector<TableMainTerm> out(count);
   const int r = model.rank;
@@ -265,6 +266,10 @@ std::vector<TableMainTerm> main_term_table(const QuadraticModel& model, long fir
         out[i].valid = true;
         out[i].exact = std::move(m.exact);
         out[i].ball = std::move(m.ball);
+      }
+      if (progress) {
+        std::lock_guard<std::mutex> lock(failure_mu);
+        progress((double)hi / (double)count);
       }
     }
     } catch (...) {

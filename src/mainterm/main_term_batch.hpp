@@ -14,6 +14,7 @@
 // plus the ball radius of its evaluation, < 2^{−57}), so the sum's error is at
 // most (number of primes)·2^{−56}, added to the radius together with the tail
 // bound ε(P, k) of dirichlet_l_euler_tail.
+#include <functional>
 #include <optional>
 #include <vector>
 
@@ -45,9 +46,11 @@ struct TableMainTerm {
 /// exact row by row for even rank and for weights 3/2 and 5/2 (class numbers,
 /// divisor sums: cost ≈ sqrt(X) per row), on two threads; odd rank ≥ 7 by
 /// main_term_batch with the prime bound main_term_batch_prime_bound(rank, bits)
-/// capped at max_prime (balls). `prec` is the working precision of the balls.
+/// capped at max_prime (balls). `prec` is the working precision of the balls;
+/// `progress` gets the fraction of rows done (from either thread, serialised).
 std::vector<TableMainTerm> main_term_table(const QuadraticModel& model, long first, long step, long count,
                                            slong bits, ulong max_prime, slong prec,
-                                           const MainTermOptions& options = {});
+                                           const MainTermOptions& options = {},
+                                           const std::function<void(double)>& progress = {});
 
 }  // namespace circlet
