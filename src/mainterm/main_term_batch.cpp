@@ -233,8 +233,12 @@ std::vector<TableMainTerm> main_term_table(const QuadraticModel& model, long fir
   // f ≤ det S·X): affordable for small tables only.
   const double last_n = (double)first + (double)step * (double)std::max<long>(count - 1, 0);
   const double bernoulli_work = (double)count * std::fabs(fmpq_get_d(model.det_gram.get())) * (last_n + 2);
-  if (r % 2 == 1 && r >= 7 && bernoulli_work > 3e7) {
-    // k ≥ 3: one pass over the primes for all rows (exact Bernoulli sums would cost O(X) per row).
+  // Weight 5/2 exact rows (divisor sums) cost ≈ sqrt(f) each: the batched Euler
+  // product is cheaper for large tables (10^6 rows of c_6: about 35 s of balls
+  // against about 150 s exact).
+  const double divisor_sum_work = (double)count * std::sqrt(std::fabs(fmpq_get_d(model.det_gram.get())) * (last_n + 2));
+  if ((r % 2 == 1 && r >= 7 && bernoulli_work > 3e7) || (r == 5 && divisor_sum_work > 2e9)) {
+    // One pass over the primes for all rows (exact sums would cost O(X) or O(sqrt X) per row).
     const ulong P = std::min<ulong>(main_term_batch_prime_bound(r, bits), max_prime);
     std::vector<Arb> b = main_term_batch(model, first, step, count, P, prec);
     for (long i = 0; i < count; ++i) {

@@ -43,10 +43,12 @@ struct TableMainTerm {
 };
 
 /// The rows M(first + step·i), i = 0..count−1, for tables (`main --to`, `remainder`):
-/// exact row by row for even rank and for weights 3/2 and 5/2 (class numbers,
-/// divisor sums: cost ≈ sqrt(X) per row), on two threads; odd rank ≥ 7 by
+/// exact row by row for even rank and for weight 3/2 (class numbers, cost ≈
+/// sqrt(X) per row), on two threads; weight 5/2 exact the same way (divisor sums)
+/// while rows·sqrt(det S·n_max) ≤ 2·10^9 (about 1.5·10^5 rows of c_6), odd rank ≥ 7
+/// exact while rows·det S·n_max ≤ 3·10^7 (Bernoulli sums); beyond, balls from
 /// main_term_batch with the prime bound main_term_batch_prime_bound(rank, bits)
-/// capped at max_prime (balls). `prec` is the working precision of the balls;
+/// capped at max_prime. `prec` is the working precision of the balls;
 /// `progress` gets the fraction of rows done (from either thread, serialised).
 std::vector<TableMainTerm> main_term_table(const QuadraticModel& model, long first, long step, long count,
                                            slong bits, ulong max_prime, slong prec,
