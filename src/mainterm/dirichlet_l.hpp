@@ -1,6 +1,6 @@
 #pragma once
 // Quadratic Dirichlet characters and their L-values at positive integers
-// (MATH.md §5): the good-prime product of every main term is an L-value.
+// (docs/MATH.md §5): the good-prime product of every main term is an L-value.
 //
 //   χ_d(n) = (d/n), the Kronecker symbol of a fundamental discriminant d
 //   (d = 1 is the trivial character); conductor f = |d|, χ_d(−1) = sign(d).
@@ -11,7 +11,7 @@
 //   L(k, χ) = R · π^k / sqrt(f),   R = (−1)^{1+⌊k/2⌋} · 2^{k−1}/k! · Σ_{a=1}^{f} χ(a) B_k(a/f),
 //   and B_{k,χ} = f^{k−1} Σ_{a=1}^{f} χ(a) B_k(a/f) (generalised Bernoulli number).
 // References: L. C. Washington, Introduction to Cyclotomic Fields, 2nd ed.,
-// Springer 1997, Thm 4.2 and Exercise 4.? (functional equation); H. Cohen,
+// Springer 1997, Thm 4.2 (quoted from memory); H. Cohen,
 // Number Theory Vol. II, Springer GTM 240 (2007), §10.3 (Prop. 10.3.5; quoted
 // from memory). The tests check R against acb_dirichlet_l and PARI/GP.
 //

@@ -114,7 +114,7 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
     P.discriminant = ed->d0;
     P.cofactor = ed->g;
   } else {
-    // D = (−1)^k det S · X; its squarefree kernel fixes the character (MATH.md §5).
+    // D = (−1)^k det S · X; its squarefree kernel fixes the character (docs/MATH.md §5).
     Fmpq D;
     fmpq_mul(D.get(), model.det_gram.get(), P.X.get());
     if (s % 2 == 1) fmpq_neg(D.get(), D.get());

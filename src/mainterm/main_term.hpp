@@ -1,10 +1,10 @@
 #pragma once
 // The circle-method main term M(n) = σ_∞(X) · Π_p β_p(n) of a family
-// (MATH.md §3 and §5), exact where the mathematics makes it rational.
+// (docs/MATH.md §3 and §5), exact where the mathematics makes it rational.
 //
 // Let w = r/2 and let S be the set of special primes: p | 2·t·d0 and p | X
 // (numerator or denominator). Outside S every β_p is a quadratic-character
-// Euler factor (MATH.md §4):
+// Euler factor (docs/MATH.md §4):
 //
 //  * r even, χ = χ_{d0}, d0 = disc. of Q(sqrt((−1)^w det S)) (fixed by the family):
 //      Π_p β_p = C / L(w, χ),   C = Π_{p∈S} β_p / (1 − χ(p) p^{−w}).

@@ -1,4 +1,4 @@
-// σ_∞(X) = π^{r/2} X^{r/2−1} / (Γ(r/2) sqrt(det S))  (MATH.md §3).
+// σ_∞(X) = π^{r/2} X^{r/2−1} / (Γ(r/2) sqrt(det S))  (docs/MATH.md §3).
 #include "mainterm/singular_integral.hpp"
 
 #include "core/error.hpp"

@@ -1,5 +1,5 @@
 #pragma once
-// The singular integral of the circle method (MATH.md §3):
+// The singular integral of the circle method (docs/MATH.md §3):
 //
 //   σ_∞(X) = π^{r/2} X^{r/2 − 1} / ( Γ(r/2) · sqrt(det S) ),
 //
