@@ -39,13 +39,21 @@ TEST_CASE("circlet main: --explain lists the parts", "[mainterm][cli]") {
   CHECK(r.out.find("special primes") != std::string::npos);
 }
 
-TEST_CASE("circlet main: tables as CSV and JSON, fast path labelled", "[mainterm][cli]") {
+TEST_CASE("circlet main: tables as CSV and JSON, exact values exact", "[mainterm][cli]") {
   Run r = run("main c5 --to 4");
   CHECK(r.status == 0);
   CHECK(circlet::testing::csv_body(r.out) == "n,count,main,remainder\n0,1,1,0\n1,1,1,0\n2,2,2,0\n3,3,3,0\n4,5,5,0\n");
-  Run a = run("main sq5 --ap 3,1 --to 2 --fast");
+  // r_5 = M exactly (tests/mainterm_main_term.cpp checks it against θ(q)^5): remainders 0.
+  Run a = run("main sq5 --ap 3,1 --to 2");
   CHECK(a.status == 0);
-  CHECK(a.out.find("main_fast_not_certified") != std::string::npos);
+  CHECK(circlet::testing::csv_body(a.out) == "k,n,count,main,remainder\n0,1,10,10,0\n1,4,90,90,0\n2,7,320,320,0\n");
+  // Weight 5/2 tables are exact rationals (c_6(10) = 12, M = 131/10 as in `main c6 --at 10`).
+  Run c6 = run("main c6 --to 12");
+  CHECK(c6.status == 0);
+  CHECK(c6.out.find("10,12,131/10,-11/10\n") != std::string::npos);
+  CHECK(c6.out.find("+/-") == std::string::npos);
+  Run f = run("main c6 --to 3 --fast");
+  CHECK(f.status != 0);  // the uncertified path is gone: the certified table is the fast one
   Run j = run("main sq4 --to 3 --json");
   CHECK(j.status == 0);
   CHECK(j.out.find("\"provenance\"") != std::string::npos);
@@ -66,4 +74,21 @@ TEST_CASE("circlet main: bad input is a user error with one clear line", "[maint
   CHECK(r.out.find("--explain is for a single value") != std::string::npos);
   r = run("main c5 --at 10 --digits 0");
   CHECK(r.status == 2);
+}
+
+TEST_CASE("circlet main: factoring a huge X gives up under --factor-timeout", "[mainterm][cli]") {
+  // X = 10^100 + Δ needs the quadratic sieve for far longer than a second: the child
+  // process is stopped and the main term is reported unknown, exit status 0.
+  const std::string n = "1" + std::string(100, '0');
+  Run r = run("main c6 --at " + n + " --factor-timeout 1");
+  CHECK(r.status == 0);
+  CHECK(r.out.find("main term   unknown (X could not be factored in the time allowed: --factor-timeout 1 s)") !=
+        std::string::npos);
+  Run bad = run("main c6 --at 5 --factor-timeout 0");
+  CHECK(bad.status == 2);
+  CHECK(bad.out.find("--factor-timeout must be a positive number of seconds") != std::string::npos);
+  // Below the threshold the result is computed in the same process as before.
+  Run big = run("main c9 --at 1" + std::string(30, '0'));
+  CHECK(big.status == 0);
+  CHECK(big.out.find("(exact rational)") != std::string::npos);
 }

@@ -39,3 +39,38 @@ TEST_CASE("batched main terms reach the accuracy the prime bound promises", "[ma
   std::vector<Arb> v = main_term_batch(m, 100000, 1, 50, P, 64);
   for (const Arb& b : v) CHECK(arb_rel_accuracy_bits(b) >= 19);
 }
+
+TEST_CASE("main-term tables: exact rows equal main_term, ball rows contain it, both threads",
+          "[mainterm][main_term_batch]") {
+  // main_term (single n, exact routes) is the reference for every row of
+  // main_term_table; 700 rows use both threads (blocks of 256).
+  for (const char* name : {"c4", "sc7", "c6", "sq5", "c8", "c10", "c9", "sq4"}) {
+    QuadraticModel m = quadratic_model(Family::parse(name));
+    for (long step : {1L, 5L}) {
+      const long first = 2, count = 700;
+      std::vector<TableMainTerm> t = main_term_table(m, first, step, count, 40, 500000, 128);
+      REQUIRE(t.size() == (size_t)count);
+      for (long i = 0; i < count; i += (i < 20 ? 1 : 37)) {
+        Fmpz n(first + step * i);
+        INFO(name << " n = " << n.str());
+        if (fmpq_sgn(m.X(n).get()) <= 0) {
+          CHECK(!t[i].valid);
+          continue;
+        }
+        REQUIRE(t[i].valid);
+        MainTerm ref = main_term(m, n, 128);
+        REQUIRE(ref.exact.has_value());
+        if (t[i].exact)
+          CHECK(*t[i].exact == *ref.exact);
+        else
+          CHECK(arb_contains_fmpq(t[i].ball.get(), ref.exact->get()));
+      }
+    }
+  }
+  // Weight 3/2 and 5/2 tables are exact in every row (class numbers, divisor sums).
+  for (const char* name : {"c4", "c6"}) {
+    QuadraticModel m = quadratic_model(Family::parse(name));
+    std::vector<TableMainTerm> t = main_term_table(m, 0, 1, 600, 40, 500000, 128);
+    for (const auto& row : t) CHECK(row.exact.has_value());
+  }
+}

@@ -1,5 +1,5 @@
 #pragma once
-// The remainder E(n) = count(n) − M(n) (docs/MATH.md §3: the cusp part), exact
+// The remainder E(n) = count(n) − M(n) (docs/MATH.md §6: the cusp part), exact
 // where the main term is exact and a ball otherwise, normalised by
 //   X^{(w−1)/2}  (Deligne's scale for integral weight: E = O(X^{(w−1)/2+ε}))
 //   X^{w/2}      (Hecke's scale: E = O(X^{w/2}))

@@ -10,6 +10,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.hpp"
+#include "cli/progress_line.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
 #include "core/provenance.hpp"
@@ -26,34 +27,6 @@ struct CountOptions {
   std::string to, at, ap;
   bool json = false;
   std::string output;
-};
-
-// Shows "circlet count: <stage> <pct>%" on stderr, only when stderr is a terminal
-// and the run has lasted more than two seconds; clears the line at the end.
-class ProgressLine {
- public:
-  ProgressLine() : enabled_(stderr_is_terminal()), start_(Clock::now()) {}
-  ~ProgressLine() { finish(); }
-  void update(const std::string& stage, double fraction) {
-    if (!enabled_) return;
-    const auto now = Clock::now();
-    if (now - start_ < std::chrono::seconds(2)) return;
-    if (shown_ && now - last_ < std::chrono::milliseconds(200)) return;
-    last_ = now;
-    shown_ = true;
-    std::fprintf(stderr, "\rcirclet count: %-14s %5.1f%%", stage.c_str(), 100.0 * fraction);
-    std::fflush(stderr);
-  }
-  void finish() {
-    if (shown_) std::fprintf(stderr, "\r\033[K");
-    shown_ = false;
-  }
-
- private:
-  using Clock = std::chrono::steady_clock;
-  bool enabled_;
-  bool shown_ = false;
-  Clock::time_point start_, last_;
 };
 
 std::string eta_quotient_text(const EtaQuotient& q) {
@@ -80,7 +53,7 @@ void run_count(const CountOptions& opt) {
 
   IntegerSeries series;
   {
-    ProgressLine line;
+    ProgressLine line("count", (double)(n_max + 1), "coeff");  // rate in coefficients 0..N per second
     series = compute_series(plan, [&line](const std::string& stage, double f) { line.update(stage, f); });
   }
 

@@ -1,8 +1,20 @@
 // `circlet main FAMILY (--at N | --to N | --ap A,B --to K) [--digits D] [--explain]
-//                      [--fast] [--json] [-o FILE]`:
+//                      [--json] [-o FILE]`:
 // the circle-method main term M(n) (src/mainterm/main_term.hpp), exact or as a
 // certified ball, next to the exact count (series engine) and the remainder.
+#include <dirent.h>
+#include <poll.h>
+#include <signal.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
 #include <algorithm>
+#include <cerrno>
+#include <chrono>
+#include <cstdlib>
+#include <functional>
+#include <optional>
+#include <vector>
 #include <climits>
 #include <iostream>
 #include <memory>
@@ -36,9 +48,10 @@ struct MainOptions {
   std::string to, at, ap;
   long digits = 15;
   bool explain = false;
-  bool fast = false;
   bool json = false;
   bool no_count = false;
+  double class_number_steps = 3e8;
+  double factor_timeout = 60;
   std::string output;
 };
 
@@ -111,7 +124,156 @@ void print_explain(std::ostream& out, const MainTerm& m, long digits) {
   out << "  C                     " << p.correction.str() << "\n";
 }
 
+// Factoring a large X (FLINT's quadratic sieve writes work files into the current
+// directory and may run for hours) happens in a child process whose working
+// directory is a private temporary directory (mkdtemp), removed afterwards; the
+// parent never changes its own directory. The child writes its whole output (or
+// "E" and a user-error message) into a pipe; after `timeout` seconds the child is
+// killed and the caller gets nullopt.
+struct GuardedResult {
+  bool user_error = false;
+  std::string text;
+};
+
+void remove_tree_flat(const std::string& dir) {
+  if (DIR* d = ::opendir(dir.c_str())) {
+    while (dirent* e = ::readdir(d)) {
+      const std::string name = e->d_name;
+      if (name == "." || name == "..") continue;
+      ::unlink((dir + "/" + name).c_str());
+    }
+    ::closedir(d);
+  }
+  ::rmdir(dir.c_str());
+}
+
+std::optional<GuardedResult> run_in_private_child(const std::function<std::string()>& body, double timeout) {
+  const char* tmp = std::getenv("TMPDIR");
+  std::string templ = std::string(tmp && *tmp ? tmp : "/tmp") + "/circlet-factor-XXXXXX";
+  std::vector<char> buf(templ.begin(), templ.end());
+  buf.push_back('\0');
+  if (::mkdtemp(buf.data()) == nullptr)
+    throw UserError("cannot create a private temporary directory for factoring under " + templ.substr(0, templ.rfind('/')) +
+                    " (set TMPDIR to a writable directory)");
+  const std::string dir(buf.data());
+  int fds[2];
+  if (::pipe(fds) != 0) {
+    remove_tree_flat(dir);
+    throw UserError("cannot create a pipe for the factoring process");
+  }
+  std::cout.flush();
+  std::cerr.flush();
+  const pid_t pid = ::fork();
+  if (pid < 0) {
+    ::close(fds[0]);
+    ::close(fds[1]);
+    remove_tree_flat(dir);
+    throw UserError("cannot start the factoring process");
+  }
+  if (pid == 0) {
+    ::close(fds[0]);
+    std::string out;
+    if (::chdir(dir.c_str()) != 0) {
+      out = "Ecannot enter the private temporary directory " + dir;
+    } else {
+      try {
+        out = "O" + body();
+      } catch (const UserError& e) {
+        out = std::string("E") + e.what();
+      }
+    }
+    size_t off = 0;
+    while (off < out.size()) {
+      const ssize_t w = ::write(fds[1], out.data() + off, out.size() - off);
+      if (w <= 0) break;
+      off += (size_t)w;
+    }
+    ::close(fds[1]);
+    ::_exit(0);
+  }
+  ::close(fds[1]);
+  std::string data;
+  bool timed_out = false;
+  const auto deadline = std::chrono::steady_clock::now() + std::chrono::duration<double>(timeout);
+  for (;;) {
+    const double left = std::chrono::duration<double>(deadline - std::chrono::steady_clock::now()).count();
+    if (left <= 0) {
+      timed_out = true;
+      break;
+    }
+    pollfd pf{fds[0], POLLIN, 0};
+    const int pr = ::poll(&pf, 1, (int)std::min(left * 1000 + 1, 1000.0));
+    if (pr < 0 && errno == EINTR) continue;
+    if (pr <= 0) continue;
+    char chunk[65536];
+    const ssize_t got = ::read(fds[0], chunk, sizeof chunk);
+    if (got < 0 && errno == EINTR) continue;
+    if (got <= 0) break;  // end of file: the child is done
+    data.append(chunk, (size_t)got);
+  }
+  ::close(fds[0]);
+  if (timed_out) ::kill(pid, SIGKILL);
+  int status = 0;
+  while (::waitpid(pid, &status, 0) < 0 && errno == EINTR) {
+  }
+  remove_tree_flat(dir);
+  if (timed_out) return std::nullopt;
+  CIRCLET_ASSERT(!data.empty() && WIFEXITED(status), "the factoring process ended without a result");
+  GuardedResult r;
+  r.user_error = data[0] == 'E';
+  r.text = data.substr(1);
+  return r;
+}
+
+// X needs FLINT's general factoring (possibly the quadratic sieve) beyond two words.
+bool needs_private_factoring(const QuadraticModel& model, const Fmpz& n) {
+  Fmpq D;
+  Fmpq X = model.X(n);
+  fmpq_mul(D.get(), model.det_gram.get(), X.get());
+  return fmpz_bits(fmpq_numref(D.get())) + fmpz_bits(fmpq_denref(D.get())) > 100;
+}
+
+void run_single_direct(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out);
+
 void run_single(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out) {
+  Fmpz n = Fmpz::from_str(opt.at);
+  if (fmpz_sgn(n.get()) < 0) throw UserError("--at must be a non-negative integer, got " + opt.at);
+  check_main_term_input(model, n);
+  if (!needs_private_factoring(model, n)) return run_single_direct(opt, family, model, out);
+  if (stderr_is_terminal())
+    std::cerr << "circlet main: factoring X (" << model.X(n).str().size() << " digits) in a private temporary "
+              << "directory; giving up after " << opt.factor_timeout << " s (--factor-timeout)\n";
+  auto r = run_in_private_child(
+      [&] {
+        std::ostringstream o;
+        run_single_direct(opt, family, model, o);
+        return o.str();
+      },
+      opt.factor_timeout);
+  if (r && r->user_error) throw UserError(r->text);
+  if (r) {
+    out << r->text;
+    return;
+  }
+  const std::string why = "unknown (X could not be factored in the time allowed: --factor-timeout " +
+                          std::to_string((long)opt.factor_timeout) + " s)";
+  if (opt.json) {
+    nlohmann::json j;
+    j["provenance"] = Provenance::now(command_line()).to_json();
+    j["family"] = family.name();
+    j["n"] = n.str();
+    j["main"] = "unknown";
+    j["main_status"] = why;
+    j["certified"] = false;
+    out << j.dump(2) << "\n";
+    return;
+  }
+  out << "family      " << family.name() << " (" << family.description() << ")\n";
+  out << "n           " << n.str() << "\n";
+  out << "main term   " << why << "\n";
+}
+
+void run_single_direct(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out) {
   Fmpz n = Fmpz::from_str(opt.at);
   if (fmpz_sgn(n.get()) < 0) throw UserError("--at must be a non-negative integer, got " + opt.at);
   check_main_term_input(model, n);
@@ -119,26 +281,9 @@ void run_single(const MainOptions& opt, const Family& family, const QuadraticMod
   Fmpz count;
   if (cheap) count = family_series(family, fmpz_get_si(n.get())).value(fmpz_get_si(n.get()));
 
-  if (opt.fast) {
-    double M = main_term_fast(model, n);
-    if (opt.json) {
-      nlohmann::json j;
-      j["provenance"] = Provenance::now(command_line()).to_json();
-      j["family"] = family.name();
-      j["n"] = n.str();
-      j["main_fast_not_certified"] = M;
-      if (cheap) j["count"] = count.str();
-      out << j.dump(2) << "\n";
-    } else {
-      out << "family      " << family.name() << " (" << family.description() << ")\n";
-      out << "n           " << n.str() << "\n";
-      out << "main term   " << M << "   (floating point, NOT CERTIFIED)\n";
-      if (cheap) out << "count       " << count.str() << "\n";
-    }
-    return;
-  }
-
-  CertifiedMainTerm c = main_term_certified(model, n, opt.digits, 4096);
+  MainTermOptions mo;
+  mo.max_class_number_steps = opt.class_number_steps;
+  CertifiedMainTerm c = main_term_certified(model, n, opt.digits, 4096, mo);
   const MainTerm& m = c.term;
   std::string status = m.exact ? "exact rational"
                                : (c.certified ? "ball, " + std::to_string(opt.digits) + " digits certified"
@@ -195,19 +340,15 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
   const slong prec = bits_for_digits(opt.digits);
   MainTermOptions mo;
   mo.with_parts = false;
-  // Odd rank ≥ 5: all L-values of the table in one pass over the primes
-  // (main_term_batch.hpp); rows whose ball misses the digits are redone singly.
-  std::vector<Arb> batch;
-  if (!opt.fast && model.rank % 2 == 1 && model.rank >= 5) {
-    const slong bits = (slong)(opt.digits * 3.3219280948873623) + 2;
-    // Capped so that the one pass over the primes stays cheap (about 6 certified
-    // digits at k = 2, far more for k ≥ 3); rows short of --digits are counted below.
-    const ulong P = std::min<ulong>(main_term_batch_prime_bound(model.rank, bits), kTableMaxPrime);
-    batch = main_term_batch(model, has_ap ? sel.prog.B : 0, has_ap ? sel.prog.A : 1, rows, P, prec);
-  }
-  const Provenance prov = Provenance::now(command_line(), opt.fast ? 53 : prec);
-  std::string main_col = opt.fast ? "main_fast_not_certified" : "main";
-  std::string rem_col = opt.fast ? "remainder_fast_not_certified" : "remainder";
+  mo.max_class_number_steps = opt.class_number_steps;
+  // Exact rows (even rank, weights 3/2 and 5/2) on two threads; odd rank ≥ 7 as balls
+  // from one pass over the primes p ≤ kTableMaxPrime (main_term_batch.hpp).
+  const slong bits = (slong)(opt.digits * 3.3219280948873623) + 2;
+  const std::vector<TableMainTerm> table =
+      main_term_table(model, has_ap ? sel.prog.B : 0, has_ap ? sel.prog.A : 1, rows, bits, kTableMaxPrime, prec, mo);
+  const Provenance prov = Provenance::now(command_line(), prec);
+  const std::string main_col = "main";
+  const std::string rem_col = "remainder";
   std::string buf;
   long short_rows = 0;
   nlohmann::json jrows = nlohmann::json::array();
@@ -227,26 +368,11 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
     if (fmpq_sgn(X.get()) <= 0) {
       main_s = "";
       rem_s = "";
-    } else if (opt.fast) {
-      double M = main_term_fast(model, fn);
-      std::ostringstream s1, s2;
-      s1.precision(17);
-      s2.precision(17);
-      s1 << M;
-      main_s = s1.str();
-      if (with_count) {
-        s2 << fmpz_get_d(series.at(n)) - M;
-        rem_s = s2.str();
-      }
     } else {
+      const TableMainTerm& t = table[i];
       MainTerm m;
-      if (!batch.empty()) {
-        m.ball = batch[i];
-        // an exact zero (local obstruction) stays exact
-        if (arb_is_zero(m.ball)) m.exact = Fmpq(0);
-      } else {
-        m = main_term(model, fn, prec, mo);
-      }
+      m.exact = t.exact;
+      m.ball = t.ball;
       if (!m.exact && arb_rel_accuracy_bits(m.ball) < (slong)(opt.digits * 3.32)) ++short_rows;
       main_s = main_text(m, opt.digits);
       if (with_count) {
@@ -282,15 +408,15 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
   }
   if (short_rows > 0)
     std::cerr << "circlet main: note: " << short_rows << " rows have fewer than " << opt.digits
-              << " certified digits (their balls are still rigorous; the Euler product of tables stops at p <= "
-              << kTableMaxPrime << ", and L(1, chi) needs the exact route)\n";
+              << " certified digits (their balls are still rigorous; for odd rank >= 7 the Euler product of large tables "
+                 "stops at p <= "
+              << kTableMaxPrime << "; main --at N certifies more)\n";
   if (opt.json) {
     nlohmann::json j;
     j["provenance"] = prov.to_json();
     j["rows_below_requested_digits"] = short_rows;
     j["family"] = family.name();
-    j["certified"] = !opt.fast;
-    if (opt.fast) j["note"] = "main terms from the floating-point path: NOT CERTIFIED";
+    j["certified"] = true;
     j["rows"] = std::move(jrows);
     out << j.dump(2) << "\n";
   } else {
@@ -305,6 +431,7 @@ void run_main(const MainOptions& opt) {
   if (has_ap && !has_to) throw UserError("--ap A,B needs --to K (the progression is A*k+B for k = 0..K)");
   if (!has_to && !has_at) throw UserError("give --at N, --to N or --ap A,B --to K");
   if (opt.digits < 1 || opt.digits > 1000) throw UserError("--digits must be between 1 and 1000");
+  if (!(opt.factor_timeout > 0)) throw UserError("--factor-timeout must be a positive number of seconds");
   if (opt.explain && !has_at) throw UserError("--explain is for a single value (--at N)");
   const QuadraticModel model = quadratic_model(family);
   if (model.rank < 2)
@@ -327,8 +454,11 @@ const Registration registration{CommandSpec{
       cmd->add_option("--ap", opt->ap, "progression A,B: rows n = A*k+B, k = 0..K (needs --to K)");
       cmd->add_option("--digits", opt->digits, "significant digits to certify for balls (default 15)");
       cmd->add_flag("--explain", opt->explain, "print the parts: X, sigma_inf, character, L-value, special primes");
-      cmd->add_flag("--fast", opt->fast, "floating-point main term (NOT CERTIFIED), for bulk tables");
       cmd->add_flag("--no-count", opt->no_count, "do not compute exact counts");
+      cmd->add_option("--factor-timeout", opt->factor_timeout,
+                      "seconds allowed for factoring a large X (default 60); then the main term is unknown");
+      cmd->add_option("--class-number-steps", opt->class_number_steps,
+                      "weight 3/2: largest class-number sieve (about sqrt(|D|/3) steps; default 3e8, a few seconds)");
       cmd->add_flag("--json", opt->json, "JSON output with provenance instead of text/CSV");
       cmd->add_option("-o,--output", opt->output, "write to FILE (atomically) instead of standard output");
       cmd->callback([opt]() { run_main(*opt); });

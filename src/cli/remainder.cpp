@@ -13,18 +13,23 @@
 #include "arcs/certified_bound.hpp"
 #include "arcs/remainder.hpp"
 #include "cli/command.hpp"
+#include "cli/progress_line.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
 #include "core/provenance.hpp"
 #include "family/family.hpp"
 #include "family/progression.hpp"
 #include "mainterm/main_term.hpp"
+#include "mainterm/main_term_batch.hpp"
 #include "quadratic/model.hpp"
 #include "series/eta_series.hpp"
 
 namespace circlet::cli {
 
 namespace {
+
+// Largest prime of the batched Euler product for odd rank ≥ 7 (as `main --to`).
+constexpr ulong kTableMaxPrime = 500000;
 
 struct RemainderOptions {
   std::string family;
@@ -36,7 +41,8 @@ struct RemainderOptions {
   std::string output;
 };
 
-constexpr long kMaxRows = 1000000;
+// Largest K (rows k = 0..K, i.e. K + 1 rows), the same bound as `main --to`.
+constexpr long kMaxK = 1000000;
 
 // A ball as "[mid +/- rad]" with `digits` digits of the midpoint even where the
 // radius is large (ARB_STR_MORE); reading it back gives a ball containing x.
@@ -62,8 +68,9 @@ void run_remainder(const RemainderOptions& opt) {
   const bool has_ap = sel.progression;
   const long K = sel.count - 1, n_max = sel.n_max;
   // Every row is kept in memory (about 0.7 KB each) for the summary: cap the table.
-  if (K > kMaxRows - 1)
-    throw UserError("--to: at most " + std::to_string(kMaxRows) + " rows; thin the range out with --ap A,B");
+  if (K > kMaxK)
+    throw UserError("--to: at most " + std::to_string(kMaxK + 1) + " rows (--to " + std::to_string(kMaxK) +
+                    "); thin the range out with --ap A,B");
   std::vector<long> ks;
   std::vector<Fmpz> ns;
   for (long k = 0; k <= K; ++k) {
@@ -77,19 +84,32 @@ void run_remainder(const RemainderOptions& opt) {
   SeriesPlan plan = plan_family_series(family, n_max);
   check_resources(plan);
   OutputSink sink(opt.output);
-  const IntegerSeries series = compute_series(plan);
+  IntegerSeries series;
+  {
+    ProgressLine line("remainder", (double)(n_max + 1), "coeff");
+    series = compute_series(plan, [&line](const std::string& stage, double f) { line.update(stage, f); });
+  }
   std::vector<Fmpz> counts;
   counts.reserve(ns.size());
   for (const auto& n : ns) counts.push_back(series.value(fmpz_get_si(n.get())));
 
   const slong prec = opt.prec;
-  MainTermOptions mopt;
-  mopt.with_parts = false;
+  // All main terms at once (main_term_batch.hpp: exact rows on two threads, one
+  // pass over the primes for odd rank ≥ 7, truncated for the printed --digits):
+  // linear in the number of rows.
+  const long first = has_ap ? sel.prog.B : 0, step = has_ap ? sel.prog.A : 1;
+  std::vector<TableMainTerm> mt;
+  {
+    ProgressLine line("remainder", (double)(K + 1), "rows");
+    mt = main_term_table(model, first, step, K + 1, (slong)(opt.digits * 3.3219280948873623) + 10, kTableMaxPrime,
+                         prec, {}, [&line](double f) { line.update("main terms", f); });
+  }
   auto M = [&](const Fmpz& n) {
-    MainTerm m = main_term(model, n, prec, mopt);
+    const TableMainTerm& t = mt[(fmpz_get_si(n.get()) - first) / step];
+    CIRCLET_ASSERT(t.valid, "remainder: no main term for a row with X > 0");
     MainTermValue v;
-    v.ball = m.ball;
-    v.exact = m.exact;
+    v.ball = t.ball;
+    v.exact = t.exact;
     return v;
   };
   const RemainderTable table = remainder_table(model, ns, counts, M, prec);

@@ -9,6 +9,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <thread>
 #include <vector>
 
 #include "core/error.hpp"
@@ -191,6 +192,118 @@ Fmpq dirichlet_l_rational(const Fmpz& d, ulong k) {
   fmpq_div_fmpz(R.get(), R.get(), f.get());
   if (((1 + k / 2) & 1) == 1) fmpq_neg(R.get(), R.get());
   return R;
+}
+
+double dirichlet_l2_steps(const Fmpz& d) {
+  Fmpz r;
+  fmpz_sqrt(r.get(), d.get());
+  return fmpz_get_d(r.get()) / 2;
+}
+
+Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
+  CIRCLET_ASSERT(fmpz_sgn(dz.get()) > 0 && !fmpz_is_one(dz.get()) && fmpz_bits(dz.get()) <= 62,
+                 "dirichlet_l2_rational_divisor_sums: need 1 < d < 2^62");
+  CIRCLET_ASSERT(is_fundamental_discriminant(dz), "dirichlet_l2_rational_divisor_sums: d must be fundamental");
+  using u128 = unsigned __int128;
+  const ulong d = fmpz_get_ui(dz.get());
+  const ulong B = n_sqrt(d - 1);  // b² < d (d is not a square)
+  const ulong b0 = d & 1;         // b ≡ d (mod 2); b = b0 + 2j, j = 0..J
+  if (B < b0) return Fmpq(0);
+  const ulong J = (B - b0) / 2;
+  // m_b = (d − b²)/4 ≤ d/4: primes up to sqrt(d/4) leave at most one prime factor.
+  const ulong Pmax = n_sqrt(d / 4) + 1;
+  struct Root {
+    ulong p, j1, j2;  // j ≡ j1 or j2 (mod p) ⟺ p | m_b
+  };
+  // Roots of b² ≡ d (mod p) for the odd primes p ≤ Pmax, in two halves on two threads.
+  auto find_roots = [&](ulong plo, ulong phi, std::vector<Root>& out) {
+    n_primes_t it;
+    n_primes_init(it);
+    n_primes_jump_after(it, plo);
+    for (ulong p = n_primes_next(it); p <= phi; p = n_primes_next(it)) {
+      if (p == 2) continue;  // 2 is handled by trailing zeros
+      const ulong dp = d % p;
+      // p | m_b ⟺ b² ≡ d (mod p) (4 is invertible): no root when d is a non-residue.
+      if (dp != 0 && n_jacobi_unsigned(dp, p) != 1) continue;
+      const ulong r = dp == 0 ? 0 : n_sqrtmod(dp, p);
+      const ulong inv2 = (p + 1) / 2;
+      // b0 + 2j ≡ ±r (mod p) ⟺ j ≡ (±r − b0)/2 (mod p)
+      const ulong j1 = n_mulmod2((r + p - b0 % p) % p, inv2, p);
+      const ulong j2 = n_mulmod2(((p - r) % p + p - b0 % p) % p, inv2, p);
+      out.push_back({p, j1, j2});
+    }
+    n_primes_clear(it);
+  };
+  // σ_1(m_b) for j in [jlo, jhi], summed with multiplicity 2 for b ≠ 0 (b and −b).
+  auto sieve = [&](ulong jlo, ulong jhi, const std::vector<Root>& roots, u128& total) {
+    const ulong S = std::min<ulong>(1 << 16, jhi - jlo + 1);  // small calls: no large allocation
+    std::vector<ulong> rem(S), val(S);
+    for (ulong L = jlo; L <= jhi; L += S) {
+      const ulong R = std::min<ulong>(jhi, L + S - 1);
+      const ulong len = R - L + 1;
+      for (ulong i = 0; i < len; ++i) {
+        const ulong b = b0 + 2 * (L + i);
+        ulong m = (d - b * b) / 4;
+        const int v = __builtin_ctzl(m);  // σ(2^v) = 2^{v+1} − 1
+        m >>= v;
+        rem[i] = m;
+        val[i] = (UWORD(2) << v) - 1;
+      }
+      for (const Root& rt : roots) {
+        const ulong p = rt.p;
+        for (int w = 0; w < 2; ++w) {
+          if (w == 1 && rt.j2 == rt.j1) break;
+          const ulong jr = w == 0 ? rt.j1 : rt.j2;
+          for (ulong j = L + (jr + p - L % p) % p; j <= R; j += p) {  // j ≡ jr (mod p), j ≥ L
+            const ulong i = j - L;
+            ulong x = rem[i] / p, pe = p, sig = 1 + p;
+            while (x % p == 0) {
+              x /= p;
+              pe *= p;
+              sig += pe;
+            }
+            rem[i] = x;
+            val[i] *= sig;
+          }
+        }
+      }
+      for (ulong i = 0; i < len; ++i) {
+        if (rem[i] > 1) val[i] *= 1 + rem[i];  // the one prime factor above sqrt(d/4)
+        const ulong b = b0 + 2 * (L + i);
+        total += (u128)val[i] * (b == 0 ? 1 : 2);
+      }
+    }
+  };
+  std::vector<Root> roots, roots2;
+  u128 total = 0;
+  if (J < (1u << 17)) {
+    find_roots(0, Pmax, roots);
+    sieve(0, J, roots, total);
+  } else {
+    // Primes thin out: the second thread takes the larger upper part of the range.
+    const ulong pmid = Pmax / 3;
+    std::thread th([&] { find_roots(pmid, Pmax, roots2); });
+    find_roots(0, pmid, roots);
+    th.join();
+    roots.insert(roots.end(), roots2.begin(), roots2.end());
+    u128 t2 = 0;
+    const ulong jmid = J / 2;
+    std::thread th2([&] { sieve(jmid + 1, J, roots, t2); });
+    sieve(0, jmid, roots, total);
+    th2.join();
+    total += t2;
+  }
+  // R = B_{2,χ}/f = (2/5) Σ / d.
+  Fmpz t;
+  fmpz_set_ui(t.get(), (ulong)(total >> 64));
+  fmpz_mul_2exp(t.get(), t.get(), 64);
+  fmpz_add_ui(t.get(), t.get(), (ulong)total);
+  fmpz_mul_ui(t.get(), t.get(), 2);
+  Fmpz den;
+  fmpz_mul_ui(den.get(), dz.get(), 5);
+  Fmpq Rq;
+  fmpq_set_fmpz_frac(Rq.get(), t.get(), den.get());
+  return Rq;
 }
 
 void dirichlet_l_from_rational(arb_t res, const Fmpq& R, const Fmpz& d, ulong k, slong prec) {

@@ -10,10 +10,10 @@
 //   with τ(χ_d) = sqrt(f) (d > 0) or i·sqrt(f) (d < 0), so
 //   L(k, χ) = R · π^k / sqrt(f),   R = (−1)^{1+⌊k/2⌋} · 2^{k−1}/k! · Σ_{a=1}^{f} χ(a) B_k(a/f),
 //   and B_{k,χ} = f^{k−1} Σ_{a=1}^{f} χ(a) B_k(a/f) (generalised Bernoulli number).
-// References (docs/MATH.md §5, §11): L. C. Washington, Introduction to Cyclotomic
-// Fields, 2nd ed., Springer 1997, Thm 4.2; H. Cohen, Number Theory Vol. II,
-// Springer GTM 240 (2007), §10.3 (both quoted from memory). The tests check R
-// against acb_dirichlet_l and PARI/GP.
+// References: L. C. Washington, Introduction to Cyclotomic Fields, 2nd ed.,
+// Springer 1997, Thm 4.2 (quoted from memory); H. Cohen,
+// Number Theory Vol. II, Springer GTM 240 (2007), §10.3 (Prop. 10.3.5; quoted
+// from memory). The tests check R against acb_dirichlet_l and PARI/GP.
 //
 // Ball route (large conductor, k ≥ 2): the Euler product over p ≤ P with a
 // rigorous tail bound (see dirichlet_l_euler).
@@ -47,6 +47,22 @@ Fmpq generalised_bernoulli(const Fmpz& d, ulong k);
 /// R with L(k, χ_d) = R π^k / sqrt(f); requires χ_d(−1) = (−1)^k (d > 0 for
 /// even k, d < 0 for odd k; d = 1 allowed for even k ≥ 2: ζ(k)).
 Fmpq dirichlet_l_rational(const Fmpz& d, ulong k);
+
+/// R for k = 2 and a fundamental d > 1 (even χ) without the O(f) Bernoulli sum:
+/// Siegel's formula for the real quadratic field K = Q(sqrt d),
+///   ζ_K(−1) = (1/60) Σ_{b ∈ Z, b² < d, b ≡ d (mod 2)} σ_1((d − b²)/4),
+/// with ζ_K = ζ·L(·, χ_d), ζ(−1) = −1/12 and L(−1, χ) = −B_{2,χ}/2, gives
+///   B_{2,χ} = 24 ζ_K(−1) = (2/5) Σ_b σ_1((d − b²)/4),   R = B_{2,χ}/f.
+/// (C. L. Siegel, "Berechnung von Zetafunktionen an ganzzahligen Stellen",
+/// Nachr. Akad. Wiss. Göttingen 1969; D. Zagier, "On the values at negative
+/// integers of the zeta-function of a real quadratic field", Enseign. Math. 22
+/// (1976); both quoted from memory. The tests check it against the Bernoulli sum.)
+/// The σ_1 come from a sieve over b with the roots of b² ≡ d (mod p), p ≤ sqrt(d)/2:
+/// cost ≈ sqrt(d) steps (dirichlet_l2_steps). Exact.
+Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& d);
+
+/// Sieve length of dirichlet_l2_rational_divisor_sums: about sqrt(d)/2.
+double dirichlet_l2_steps(const Fmpz& d);
 
 /// Ball for R π^k / sqrt(f).
 void dirichlet_l_from_rational(arb_t res, const Fmpq& R, const Fmpz& d, ulong k, slong prec);

@@ -5,11 +5,13 @@
 #include <flint/ulong_extras.h>
 
 #include <algorithm>
+#include <cstdio>
 #include <cmath>
 #include <map>
 #include <mutex>
 
 #include "core/error.hpp"
+#include "mainterm/class_number.hpp"
 #include "mainterm/dirichlet_l.hpp"
 #include "mainterm/singular_integral.hpp"
 #include "quadratic/local_density.hpp"
@@ -70,6 +72,17 @@ const EvenRankData& even_rank_data(const QuadraticModel& model) {
 }
 
 }  // namespace
+
+std::string class_number_refusal(const Fmpz& f, double max_steps) {
+  const double steps = hurwitz_class_number_steps(f);
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.3g", steps);
+  std::string msg = "the weight-3/2 main term needs the class number H(" + f.str() + "), about " + buf +
+                    " sieve steps (cost grows like sqrt|D|)";
+  if (!hurwitz_class_number_in_range(f)) return msg + ": beyond the counting route's range |D| < 3*2^64";
+  std::snprintf(buf, sizeof buf, "%.0f", std::ceil(steps));
+  return msg + "; allow it with --class-number-steps " + buf;
+}
 
 void check_main_term_input(const QuadraticModel& model, const Fmpz& n) {
   if (model.rank < 2)
@@ -133,14 +146,35 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
 
   Fmpz f;
   fmpz_abs(f.get(), P.discriminant.get());
-  const bool exact_route = even || fmpz_cmp_ui(f.get(), options.max_exact_conductor) <= 0;
+  // Weight 3/2: L(1, χ) = π H(f)/sqrt(f) (d0 < 0 fundamental, R = H(f)), with H(f) from
+  // the counting route of class_number.hpp at cost ≈ sqrt(f/3): exact at every size
+  // below the user's limit.
+  const bool class_number_route = !even && s == 1 && hurwitz_class_number_in_range(f) &&
+                                  hurwitz_class_number_steps(f) <= options.max_class_number_steps;
+  if (!even && s == 1 && !class_number_route && fmpz_cmp_ui(f.get(), options.max_exact_conductor) > 0)
+    throw UserError(class_number_refusal(f, options.max_class_number_steps));
+  // Weight 5/2: L(2, χ) exact from Siegel's divisor sums (dirichlet_l.hpp) at cost ≈ sqrt(f)/2,
+  // cheaper than the O(f) Bernoulli sum above a small conductor.
+  const bool divisor_sum_route = !even && s == 2 && fmpz_cmp_ui(f.get(), 20000) > 0 && fmpz_bits(f.get()) <= 62 &&
+                                 dirichlet_l2_steps(f) <= options.max_divisor_sum_steps;
+  const bool exact_route = even || class_number_route || divisor_sum_route ||
+                           fmpz_cmp_ui(f.get(), options.max_exact_conductor) <= 0;
   const bool need_balls = options.with_parts || (!exact_route && !options.skip_l_value);
   if (need_balls) singular_integral(P.sigma_inf.get(), r, model.det_gram, P.X, prec);
 
   if (exact_route) {
-    Fmpq R = even ? ed->R : dirichlet_l_rational(P.discriminant, s);
+    Fmpq R = even                 ? ed->R
+             : class_number_route ? hurwitz_class_number(f)
+             : divisor_sum_route  ? dirichlet_l2_rational_divisor_sums(P.discriminant)
+                                  : dirichlet_l_rational(P.discriminant, s);
     P.L_rational = R;
-    P.L_route = "exact: generalised Bernoulli number B_{k,χ} (conductor " + f.str() + ")";
+    P.L_route = divisor_sum_route
+                    ? "exact: L(2, chi) from Siegel's divisor sums for zeta_K(-1), K = Q(sqrt(" + f.str() + ")) (" +
+                          std::to_string((long)dirichlet_l2_steps(f)) + " sieve steps)"
+                : class_number_route
+                    ? "exact: class number, H(" + f.str() + ") by counting reduced forms (" +
+                          std::to_string((long)hurwitz_class_number_steps(f)) + " sieve steps)"
+                    : "exact: generalised Bernoulli number B_{k,χ} (conductor " + f.str() + ")";
     if (need_balls) dirichlet_l_from_rational(P.L_value.get(), R, P.discriminant, s, prec);
     Fmpq M;
     Fmpz xpow, fac;
@@ -194,10 +228,12 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
     // Tail below 2^{−(prec−18)}: main_term_certified works 20 bits above its target.
     ulong Pmax = dirichlet_l_euler_bound(s, std::max<slong>(prec - 18, 8), options.max_euler_prime);
     dirichlet_l_euler(P.L_value.get(), P.discriminant, s, Pmax, prec);
+    P.accuracy_limited = Pmax >= options.max_euler_prime;
     P.L_route = "ball: Euler product over p ≤ " + std::to_string(Pmax) + " with rigorous tail bound";
   } else {
     arb_indeterminate(P.L_value.get());
     P.L_route = "unavailable: L(1, χ) with conductor " + f.str() + " above the exact-route limit";
+    P.accuracy_limited = true;
   }
   Arb z;
   arb_zeta_ui(z, 2 * s, prec + 10);
@@ -229,7 +265,7 @@ CertifiedMainTerm main_term_certified(const QuadraticModel& model, const Fmpz& n
     // Stop when raising the precision no longer helps: the accuracy is then
     // limited by the Euler-product tail (capped prime bound), not by rounding.
     const slong acc = arb_rel_accuracy_bits(res.term.ball.get());
-    if (prec >= max_prec || acc <= last_acc + 2) return res;
+    if (prec >= max_prec || acc <= last_acc + 2 || res.term.parts.accuracy_limited) return res;
     last_acc = acc;
     prec = std::min(2 * prec, max_prec);
   }

@@ -18,8 +18,12 @@
 //      M(n) = X^k · 4^k k! · R · C / ((2k)! · Z · f · g)          (exact rational)
 //    when f is small enough for the Bernoulli route; otherwise a ball
 //    σ_∞ · L(k, χ)/ζ(2k) · C with L from its Euler product (k ≥ 2).
-//    For r = 3 (weight 3/2) L(1, χ) is a class number: M(n) is exact whenever
-//    the conductor is below the limit, and indeterminate beyond it.
+//    For r = 5 (weight 5/2) R comes from Siegel's divisor sums for ζ_K(−1)
+//    (dirichlet_l.hpp) at cost ≈ sqrt(f)/2, so M(n) is exact there as well.
+//    For r = 3 (weight 3/2) L(1, χ) = π H(f)/sqrt(f) is a class number, counted
+//    exactly at cost ≈ sqrt(f/3) (class_number.hpp): M(n) is exact at every n
+//    whose cost is below MainTermOptions::max_class_number_steps; beyond it
+//    main_term refuses with a UserError that states the cost and the option.
 #include <optional>
 #include <string>
 #include <vector>
@@ -52,6 +56,7 @@ struct MainTermParts {
   std::string L_route;    // how L was obtained
   std::vector<SpecialPrimeFactor> special;
   Fmpq correction;        // C = product of the special primes' corrections
+  bool accuracy_limited = false;  // the ball's width comes from a capped truncation (more precision cannot help)
 };
 
 struct MainTerm {
@@ -63,6 +68,11 @@ struct MainTerm {
 struct MainTermOptions {
   /// Largest conductor for the exact (Bernoulli) route of odd-rank L-values: cost O(f).
   ulong max_exact_conductor = 2000000;
+  /// Weight 3/2: largest number of sieve steps (≈ sqrt(|d0|/3)) for the class
+  /// number; 3·10^8 steps take a few seconds. The CLI's --class-number-steps.
+  double max_class_number_steps = 3e8;
+  /// Weight 5/2: largest sieve length (≈ sqrt(f)/2) for the exact L(2, χ) by divisor sums.
+  double max_divisor_sum_steps = 3e8;
   /// Largest prime of the Euler product for the ball route.
   ulong max_euler_prime = 10000000;
   /// Compute σ_∞ and the L-value balls even on the exact path (for --explain).
@@ -71,6 +81,9 @@ struct MainTermOptions {
   /// with_parts, without σ_∞; ball indeterminate). Used by main_term_batch, which computes the L-values together.
   bool skip_l_value = false;
 };
+
+/// The refusal message for a weight-3/2 class number above `max_steps`: the cost and the option that lifts it.
+std::string class_number_refusal(const Fmpz& f, double max_steps);
 
 /// Throws UserError when the family's rank is below 2 (no main term of this
 /// shape) or when X = n + Δ ≤ 0.
@@ -87,9 +100,10 @@ struct CertifiedMainTerm {
 
 /// Raises the precision (doubling from about digits·log2(10) + 20 bits up to
 /// max_prec) until the ball has relative accuracy of `digits` decimal digits.
-/// Gives up and reports certified = false rather than looping: at max_prec, or
-/// as soon as doubling the precision gains fewer than 3 bits (the accuracy is then
-/// limited by the Euler-product tail at options.max_euler_prime, not by rounding).
+/// Gives up and reports certified = false rather than looping: at max_prec, at
+/// once when the Euler product's prime bound was capped at options.max_euler_prime
+/// (parts.accuracy_limited: the tail, not rounding, sets the width), or as soon as
+/// doubling the precision gains fewer than 3 bits.
 CertifiedMainTerm main_term_certified(const QuadraticModel& model, const Fmpz& n, slong digits,
                                       slong max_prec = 4096, const MainTermOptions& options = {});
 

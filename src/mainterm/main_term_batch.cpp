@@ -5,7 +5,11 @@
 
 #include <cmath>
 #include <algorithm>
+#include <atomic>
+#include <exception>
+#include <mutex>
 #include <cstdint>
+#include <thread>
 
 #include "core/error.hpp"
 #include "mainterm/dirichlet_l.hpp"
@@ -216,6 +220,76 @@ std::vector<Arb> main_term_batch(const QuadraticModel& model, long first, long s
     arb_set_fmpq(c, corr[i].get(), prec + 10);
     arb_mul(out[i].get(), out[i].get(), c, prec);
   }
+  return out;
+}
+
+std::vector<TableMainTerm> main_term_table(const QuadraticModel& model, long first, long step, long count,
+                                           slong bits, ulong max_prime, slong prec, const MainTermOptions& options,
+                                           const std::function<void(double)>& progress) {
+  CIRCLET_ASSERT(first >= 0 && step >= 1 && count >= 0, "main_term_table: bad row range");
+  std::vector<TableMainTerm> out(count);
+  const int r = model.rank;
+  // Odd rank ≥ 7 exact row by row costs O(f·k) per row (generalised Bernoulli numbers,
+  // f ≤ det S·X): affordable for small tables only.
+  const double last_n = (double)first + (double)step * (double)std::max<long>(count - 1, 0);
+  const double bernoulli_work = (double)count * std::fabs(fmpq_get_d(model.det_gram.get())) * (last_n + 2);
+  // Weight 5/2 exact rows (divisor sums) cost ≈ sqrt(f) each: the batched Euler
+  // product is cheaper for large tables (10^6 rows of c_6: about 35 s of balls
+  // against about 150 s exact).
+  const double divisor_sum_work = (double)count * std::sqrt(std::fabs(fmpq_get_d(model.det_gram.get())) * (last_n + 2));
+  if ((r % 2 == 1 && r >= 7 && bernoulli_work > 3e7) || (r == 5 && divisor_sum_work > 2e9)) {
+    // One pass over the primes for all rows (exact sums would cost O(X) or O(sqrt X) per row).
+    const ulong P = std::min<ulong>(main_term_batch_prime_bound(r, bits), max_prime);
+    std::vector<Arb> b = main_term_batch(model, first, step, count, P, prec);
+    for (long i = 0; i < count; ++i) {
+      TableMainTerm& t = out[i];
+      if (fmpq_sgn(model.X(Fmpz(first + step * i)).get()) <= 0) continue;  // no main term: invalid row
+      t.valid = true;
+      if (arb_is_zero(b[i].get())) t.exact = Fmpq(0);  // a local obstruction stays exact
+      t.ball = std::move(b[i]);
+    }
+    return out;
+  }
+  // Row by row (exact), two threads taking blocks of rows in turn (the cost grows with n).
+  MainTermOptions opt = options;
+  opt.with_parts = false;
+  const long block = 256;
+  std::atomic<long> next{0};
+  std::exception_ptr failure;  // a refusal (UserError) in the helper thread is rethrown here
+  std::mutex failure_mu;
+  auto work = [&] {
+    try {
+    for (;;) {
+      const long lo = next.fetch_add(block);
+      if (lo >= count) return;
+      const long hi = std::min(count, lo + block);
+      for (long i = lo; i < hi; ++i) {
+        Fmpz n(first + step * i);
+        if (fmpq_sgn(model.X(n).get()) <= 0) continue;
+        MainTerm m = main_term(model, n, prec, opt);
+        out[i].valid = true;
+        out[i].exact = std::move(m.exact);
+        out[i].ball = std::move(m.ball);
+      }
+      if (progress) {
+        std::lock_guard<std::mutex> lock(failure_mu);
+        progress((double)hi / (double)count);
+      }
+    }
+    } catch (...) {
+      std::lock_guard<std::mutex> lock(failure_mu);
+      if (!failure) failure = std::current_exception();
+      next = count;  // the other thread stops too
+    }
+  };
+  if (count >= 2 * block) {
+    std::thread th(work);
+    work();
+    th.join();
+  } else {
+    work();
+  }
+  if (failure) std::rethrow_exception(failure);
   return out;
 }
 
