@@ -67,7 +67,11 @@ std::string FormSpace::str() const {
   std::string k = twice_weight % 2 == 0 ? std::to_string(twice_weight / 2) : std::to_string(twice_weight) + "/2";
   if (zero) return "the zero series";
   if (gamma1) return "M_" + k + "(Gamma1(" + std::to_string(level) + "))";
-  return "M_" + k + "(Gamma0(" + std::to_string(level) + "), " + character_str() + ")";
+  std::string g = "Gamma0(" + std::to_string(level) + ")";
+  if (twist_mod > 1 && !fmpz_is_one(group_index_factor(*this)))
+    g += " with d^2 = 1 mod " + std::to_string(twist_mod);
+  if (kernels) g += " in ker of " + std::to_string(kernels) + " quadratic character(s)";
+  return "M_" + k + "(" + g + ", " + character_str() + ")";
 }
 
 Fmpz index_gamma0(long N) {
@@ -96,7 +100,27 @@ Fmpz index_gamma1(long N) {
   return r;
 }
 
-Fmpz space_index(const FormSpace& V) { return V.gamma1 ? index_gamma1(V.level) : index_gamma0(V.level); }
+Fmpz group_index_factor(const FormSpace& V) {
+  // φ(M') / #{d : d² ≡ 1 mod M'}: per prime power p^c, φ(p^c) over 2 (p odd), 1, 2, 4 (p = 2, c = 1, 2, ≥ 3).
+  Fmpz f(1);
+  long n = V.twist_mod;
+  for (long p : prime_factors(n)) {
+    long pc = 1, c = 0;
+    while (n % p == 0) { n /= p; pc *= p; ++c; }
+    long phi = pc / p * (p - 1);
+    long sq = p != 2 ? 2 : (c == 1 ? 1 : (c == 2 ? 2 : 4));
+    fmpz_mul_si(f, f, phi / sq);
+  }
+  for (int i = 0; i < V.kernels; ++i) fmpz_mul_si(f, f, 2);
+  return f;
+}
+
+Fmpz space_index(const FormSpace& V) {
+  if (V.gamma1) return index_gamma1(V.level);
+  Fmpz i = index_gamma0(V.level);
+  fmpz_mul(i, i, group_index_factor(V));
+  return i;
+}
 
 namespace {
 bool squarefree_modulus(const Fmpz& m) {
@@ -124,8 +148,8 @@ Fmpz sturm_bound(const FormSpace& V, const Fmpz& modulus) {
 }
 
 std::string sturm_rule(const FormSpace& V, const Fmpz& modulus) {
-  std::string s = "Sturm (1987): a(m) for m <= floor((k/12) * [SL2(Z):" +
-                  std::string(V.gamma1 ? "Gamma1" : "Gamma0") + "(N)])";
+  std::string s = "Sturm (1987): a(m) for m <= floor((k/12) * [SL2(Z):Gamma]), Gamma = " +
+                  std::string(V.gamma1 ? "Gamma1(N)" : "the group of the space, index [SL2(Z):Gamma0(N)] * " + group_index_factor(V).str());
   if (V.half_integral())
     s += squarefree_modulus(modulus) ? ", applied to f^2 (weight 2k; ord f^2 = 2 ord f)"
                                      : ", applied to f*theta (weight k + 1/2; theta a unit of Z[[q]])";
@@ -223,7 +247,7 @@ FormSpace op_sieve(const FormSpace& V, long r, long M, std::vector<ChainStep>* c
     // Coprime class rp/pb mod pc: a combination of twists by all ψ mod pc.
     W.level = mul_checked(W.level, mul_checked(pc, pc));
     bool all_quadratic = pc == 2 || pc == 3 || pc == 4 || pc == 8;
-    if (!all_quadratic) W.gamma1 = true;
+    W.twist_mod = lcm_checked(W.twist_mod, pc);
     long s2, S2;
     if (!crt_intersect(W.support_res, W.support_mod, (rp / pb) % pc, pc, &s2, &S2)) {
       W.zero = true;
@@ -234,8 +258,8 @@ FormSpace op_sieve(const FormSpace& V, long r, long M, std::vector<ChainStep>* c
     record(chain, "sieve m = " + std::to_string((rp / pb) % pc) + " mod " + std::to_string(pc) + " (twists)",
            all_quadratic ? "Koblitz, GTM 97, Prop. III.3.17: twist by psi mod M lands in (N M^2, chi psi^2); every psi mod " +
                                std::to_string(pc) + " has psi^2 = 1"
-                         : "Koblitz, GTM 97, Prop. III.3.17: twists by psi mod M land in (N M^2, chi psi^2); the psi^2 "
-                           "differ, so the sum is only known on Gamma1(N M^2) (safe choice)",
+                         : "Koblitz, GTM 97, Prop. III.3.17: twists by psi mod M land in (N M^2, chi psi^2); every psi^2 is "
+                           "trivial on d with d^2 = 1 mod " + std::to_string(pc) + ", so the sum transforms with chi there",
            W);
     W = op_V(W, pb, chain);
   }
@@ -266,7 +290,10 @@ FormSpace op_combine(const std::vector<FormSpace>& terms, std::vector<ChainStep>
     }
     CIRCLET_ASSERT(t.twice_weight == W.twice_weight, "combination of forms of different weights");
     W.level = lcm_checked(W.level, t.level);
-    if (t.gamma1 || W.gamma1 || t.character != W.character) W.gamma1 = true;
+    W.twist_mod = lcm_checked(W.twist_mod, t.twist_mod);
+    W.kernels += t.kernels;
+    if (t.gamma1) W.gamma1 = true;
+    if (t.character != W.character) W.kernels += 1;  // restrict to ker(χ χ_t): index at most 2
     long g = std::gcd(W.support_mod, t.support_mod);
     g = std::gcd(g, std::labs(W.support_res - t.support_res));
     if (g == 0) g = W.support_mod;
@@ -278,8 +305,8 @@ FormSpace op_combine(const std::vector<FormSpace>& terms, std::vector<ChainStep>
     W.zero = true;
   }
   record(chain, "combine " + std::to_string(terms.size()) + " terms",
-         W.gamma1 ? "characters differ: the sum lies in M_k(Gamma1(lcm N_i)) (safe choice)"
-                  : "M_k(Gamma0(N), chi) is a vector space; each term lifted to the lcm of the levels",
+         W.kernels ? "characters differ: on the kernel of their quotient (index <= 2 each) all terms share chi"
+                   : "M_k(Gamma, chi) is a vector space; each term lifted to the lcm of the levels",
          W);
   return W;
 }
@@ -287,6 +314,9 @@ FormSpace op_combine(const std::vector<FormSpace>& terms, std::vector<ChainStep>
 nlohmann::json space_to_json(const FormSpace& V) {
   return {{"space", V.str()},
           {"group", V.gamma1 ? "Gamma1" : "Gamma0"},
+          {"twist_modulus", V.twist_mod},
+          {"kernels", V.kernels},
+          {"index_factor", group_index_factor(V).str()},
           {"level", V.level},
           {"twice_weight", V.twice_weight},
           {"character", V.gamma1 ? std::string("none") : std::to_string(V.character)},

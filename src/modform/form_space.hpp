@@ -4,8 +4,13 @@
 // citing its source; where a rule has a condition that is not met, the function
 // takes the safe larger level (a larger level only raises the Sturm bound).
 //
-// A space is M_k(Γ0(N), χ) with χ = (D/·) quadratic (D squarefree, 1 = trivial),
-// or M_k(Γ1(N)) when no single quadratic character is known ("gamma1").
+// A space is M_k(Γ, χ) with χ = (D/·) quadratic (D squarefree, 1 = trivial) and
+//   Γ = { γ ∈ Γ0(N) : d² ≡ 1 (mod M') } ∩ (kernels of up to `kernels` quadratic characters),
+// M' = twist_mod (1: Γ = Γ0(N)). Twisting by every ψ mod M' multiplies χ by ψ², and every
+// ψ² is trivial on d with d² ≡ 1 (ψ²(d) = ψ(d²)), so a sum of such twists transforms
+// with χ on Γ; a sum of forms whose quadratic characters χ1 ≠ χ2 transforms with χ1 on
+// Γ ∩ ker(χ1χ2). Γ contains Γ1(N) and −1; [Γ0(N) : Γ] ≤ φ(M')/#{d : d² ≡ 1 (M')} · 2^kernels.
+// M_k(Γ1(N)) itself ("gamma1") is kept as the last safe choice.
 // Half-integral weight follows Shimura's convention: 4 | N, multiplier of θ.
 // The support (s mod S) records that every exponent m with a(m) ≠ 0 has m ≡ s (mod S).
 //
@@ -33,6 +38,8 @@ struct FormSpace {
   long level = 1;
   long character = 1;  // D of (D/·); meaningless when gamma1
   bool gamma1 = false;
+  long twist_mod = 1;  // M'
+  int kernels = 0;
   long support_mod = 1;  // S
   long support_res = 0;  // s, 0 ≤ s < S
   bool zero = false;     // the series is identically zero (empty support)
@@ -55,7 +62,9 @@ Fmpz index_gamma0(long N);
 /// Index [SL2(Z) : Γ1(N)] = N² Π_{p|N} (1 − 1/p²) for N ≥ 3 (the order of the image in
 /// SL2(Z/N) of the upper unipotent-by-diagonal group: common practice); 1 and 3 for N = 1, 2.
 Fmpz index_gamma1(long N);
-/// The index the Sturm bound uses for this space.
+/// [Γ0(N) : Γ] as bounded above: φ(M')/#{d mod M' : d² ≡ 1} · 2^kernels.
+Fmpz group_index_factor(const FormSpace& V);
+/// The index the Sturm bound uses for this space: [SL2(Z):Γ0(N)] · group_index_factor.
 Fmpz space_index(const FormSpace& V);
 
 /// [Stu] the largest m that must be checked: ⌊(k'/12)·index⌋, k' = k for integral
@@ -81,14 +90,14 @@ FormSpace op_U(const FormSpace& V, long d, std::vector<ChainStep>* chain);
 /// The sieve Σ_{m ≡ r (mod M)} a(m) q^m, prime power by prime power: p^a | M with
 /// p^a | r: U_{p^a} V_{p^a}; v_p(r) = b < a: U_{p^b}, then the class coprime to p
 /// modulo p^{a−b} as (1/φ) Σ_ψ ψ̄(r') f⊗ψ ([Kob]: level · p^{2(a−b)}, character χψ²;
-/// when (Z/p^c)^× has exponent ≤ 2 — p^c ∈ {2, 3, 4, 8} — every ψ² is trivial and the
-/// space stays on Γ0; otherwise the sum lies in M_k(Γ1(N p^{2c})), the safe choice),
+/// the sum of twists transforms with χ on Γ ∩ {d² ≡ 1 mod p^c}: twist_mod gains p^c;
+/// when p^c ∈ {2, 3, 4, 8} that is all of Γ0),
 /// then V_{p^b}. Prime powers on which the support already implies the class are skipped.
 FormSpace op_sieve(const FormSpace& V, long r, long M, std::vector<ChainStep>* chain);
 /// f − sieve(f): the complement of a class, in the space of both (lcm of levels).
 FormSpace op_complement(const FormSpace& V, long r, long M, std::vector<ChainStep>* chain);
-/// A linear combination: lcm of the levels; Γ0 with χ when every term has the same
-/// character (each M_k(Γ0(N), χ) is a vector space), Γ1(lcm) otherwise (the safe choice).
+/// A linear combination: lcm of the levels and of the twist moduli; χ of the first term,
+/// the group cut down to ker(χχ_i) for each term whose character χ_i differs.
 /// Terms must have the same weight (CIRCLET_ASSERT; callers check first).
 FormSpace op_combine(const std::vector<FormSpace>& terms, std::vector<ChainStep>* chain);
 
