@@ -12,7 +12,7 @@
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
   const std::string s(reinterpret_cast<const char*>(data), size);
-  circlet::Relation r;
+  circlet::LinearRelation r;
   try {
     r = circlet::parse_relation(s);
   } catch (const circlet::UserError&) {

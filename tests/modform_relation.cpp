@@ -18,7 +18,7 @@ std::string error_of(const std::string& text) {
 }  // namespace
 
 TEST_CASE("relations parse into terms on one side", "[modform]") {
-  Relation r = parse_relation("c4(7n+2) = 2*sc7(8n+1) for n mod 7 != 4");
+  LinearRelation r = parse_relation("c4(7n+2) = 2*sc7(8n+1) for n mod 7 != 4");
   REQUIRE(r.terms.size() == 2);
   CHECK(r.terms[0].family.name() == "c4");
   CHECK(r.terms[0].A == 7);
@@ -32,15 +32,15 @@ TEST_CASE("relations parse into terms on one side", "[modform]") {
   CHECK(fmpz_is_zero(r.modulus));
   CHECK(r.str() == "c4(7n+2) - 2*sc7(8n+1) = 0 for n mod 7 != 4");
 
-  Relation c = parse_relation("c5(25n+24) == 0 (mod 5^2)");
+  LinearRelation c = parse_relation("c5(25n+24) == 0 (mod 5^2)");
   CHECK(c.modulus == Fmpz(25));
   CHECK(c.terms.size() == 1);
   CHECK(c.str() == "c5(25n+24) == 0 mod 25");
 
-  Relation s = parse_relation(" sc5( 2 n + 1 ) - sc5(n) = 0 ");
+  LinearRelation s = parse_relation(" sc5( 2 n + 1 ) - sc5(n) = 0 ");
   CHECK(s.terms[1].A == 1);
   CHECK(s.terms[1].coeff == Fmpq(-1));
-  Relation q = parse_relation("1/2*c4(3n) = c4(3n) - 1/2 c4(3n)");
+  LinearRelation q = parse_relation("1/2*c4(3n) = c4(3n) - 1/2 c4(3n)");
   CHECK(q.terms.size() == 3);
   CHECK(q.terms[0].coeff == Fmpq(1, 2));
   // the str() form parses back to the same relation

@@ -79,7 +79,7 @@ void run_congruences(const CongruenceOptions& o) {
     if (h.proof.verdict == ProofVerdict::Proved) {
       ++proved;
       cert = "certificates/" + file_name(h);
-      write_file_atomically(o.output + "/" + cert, h.proof.certificate.dump(2) + "\n");
+      write_file_atomically(o.output + "/" + cert, h.proof.certificate.dump() + "\n");  // compact: many files
       std::string stmt = h.ell ? h.family.name() + "(" + std::to_string(h.A) + "n+" + std::to_string(h.B) +
                                      ") ≡ 0 (mod " + std::to_string(h.ell) + (h.k > 1 ? "^" + std::to_string(h.k) : "") + ")"
                                : h.family.name() + "(" + std::to_string(h.A) + "n+" + std::to_string(h.B) + ") = 0";

@@ -21,7 +21,7 @@ struct ProveOptions {
 };
 
 void run_prove(const ProveOptions& o) {
-  const Relation rel = parse_relation(o.relation);
+  const LinearRelation rel = parse_relation(o.relation);
   std::unique_ptr<OutputSink> sink;
   if (!o.output.empty()) sink = std::make_unique<OutputSink>(o.output);  // an unwritable path fails first
   ProofResult r = prove_relation(rel);

@@ -63,7 +63,7 @@ std::string proof_certificate_digest(const nlohmann::json& cert) {
   return "sha256:" + sha256_hex(c.dump());
 }
 
-ProofResult prove_relation(const Relation& rel, const ProofOptions& opt) {
+ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
   ProofResult res;
   res.relation = rel;
   nlohmann::json cert;
@@ -310,7 +310,7 @@ ProofVerifyReport verify_proof_certificate(const nlohmann::json& cert) {
       r.failures.push_back("no relation text");
       return r;
     }
-    Relation rel = parse_relation(cert["relation"].get<std::string>());
+    LinearRelation rel = parse_relation(cert["relation"].get<std::string>());
     r.checked.push_back("relation parses: " + rel.str());
     ProofResult fresh = prove_relation(rel);
     const nlohmann::json& f = fresh.certificate;

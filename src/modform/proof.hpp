@@ -36,7 +36,7 @@ struct ProofOptions {
 struct ProofResult {
   ProofVerdict verdict = ProofVerdict::Unknown;
   std::string reason;  // one line
-  Relation relation;
+  LinearRelation relation;
   FormSpace space;
   Fmpz index, bound;
   long n_checked = -1;  // n = 0..n_checked were compared (in the class)
@@ -49,7 +49,7 @@ struct ProofResult {
 };
 
 /// Runs the whole proof. Never throws for mathematics out of reach (UNKNOWN with a reason).
-ProofResult prove_relation(const Relation& rel, const ProofOptions& opt = {});
+ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt = {});
 
 struct ProofVerifyReport {
   std::vector<std::string> failures;

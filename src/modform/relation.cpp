@@ -18,9 +18,9 @@ class Parser {
  public:
   explicit Parser(const std::string& s) : s_(s) {}
 
-  Relation parse() {
+  LinearRelation parse() {
     if (s_.size() > 4096) fail("longer than 4096 characters");
-    Relation rel;
+    LinearRelation rel;
     side(rel, 1);
     skip();
     if (eat("==") || eat("=") || eat("\xE2\x89\xA1")) {  // ≡
@@ -130,7 +130,7 @@ class Parser {
     return std::stol(d);
   }
 
-  void side(Relation& rel, int sign) {
+  void side(LinearRelation& rel, int sign) {
     skip();
     int s = 1;
     if (eat("+")) s = 1;
@@ -144,7 +144,7 @@ class Parser {
     }
   }
 
-  void term(Relation& rel, int sign) {
+  void term(LinearRelation& rel, int sign) {
     skip();
     Fmpq c(1);
     bool have_number = false;
@@ -196,9 +196,9 @@ class Parser {
 
 }  // namespace
 
-Relation parse_relation(const std::string& text) { return Parser(text).parse(); }
+LinearRelation parse_relation(const std::string& text) { return Parser(text).parse(); }
 
-std::string Relation::str() const {
+std::string LinearRelation::str() const {
   std::string s;
   for (size_t i = 0; i < terms.size(); ++i) {
     const auto& t = terms[i];

@@ -28,7 +28,7 @@ struct RelationTerm {
   long A = 1, B = 0;
 };
 
-struct Relation {
+struct LinearRelation {
   std::vector<RelationTerm> terms;  // right-hand side moved over with negated coefficients
   Fmpz modulus;                     // 0: identity
   bool restricted = false;          // "for n mod Q (=|!=) r"
@@ -39,6 +39,6 @@ struct Relation {
 };
 
 /// Parses the syntax above; UserError naming the problem (and where) otherwise.
-Relation parse_relation(const std::string& text);
+LinearRelation parse_relation(const std::string& text);
 
 }  // namespace circlet
