@@ -3,6 +3,7 @@
 #include <catch2/catch.hpp>
 
 #include <sstream>
+#include <tuple>
 
 #include "mainterm_gp.hpp"
 #include "modform/eta_product.hpp"
@@ -146,5 +147,38 @@ TEST_CASE("U_d: PARI finds f|U_d in the space our rule names, and not with the t
     INFO(c.fam << " U_" << c.d << " in " << c.W.str() << ": PARI " << in << " (control with trivial character: " << control << ")");
     CHECK(in == "1");
     if (c.W.character != 1 && !c.W.zero) CHECK(control == "0");  // the zero series lies in every space
+  }
+}
+
+TEST_CASE("sieves to a class prime to 3 or 4 or 8: PARI finds the sieved series in the space our rule names",
+          "[modform][gp]") {
+  // Outside check of the twist rule (Koblitz, GTM 97, Prop. III.3.17): Σ_{m ≡ r (M)} a(m) q^m,
+  // M ∈ {3, 4, 8}, lies in M_k(Γ0(N M²), χ); same test as for U_d.
+  if (!circlet::testing::gp_available()) {
+    WARN("gp not found: PARI/GP comparison skipped");
+    return;
+  }
+  std::string script =
+      "insieve(F,r,M,N,k,D,L)={my(v=mfcoefs(F,L),w=vector(L+1,i,if((i-1)%M==r,v[i],0)),mf=mfinit([N,k,D]),"
+      "B=mftobasis(mf,w,1)); if(#B==0,return(0)); mfcoefs(mflinear(mf,B),L)==w};\n";
+  struct Case { std::string fam; long r, M; FormSpace W; };
+  std::vector<Case> cases;
+  for (const auto& [f, r, M] : std::vector<std::tuple<std::string, long, long>>{
+           {"c5", 1, 3}, {"c5", 2, 3}, {"c5", 1, 4}, {"c7", 1, 3}, {"sq3", 1, 3}, {"c4", 5, 24}, {"sc5", 3, 4}})
+    cases.push_back({f, r, M, op_sieve(family_space(f), r, M, nullptr)});
+  for (const auto& c : cases) {
+    const FormSpace& W = c.W;
+    long disc = (((W.character % 4) + 4) % 4 == 1) ? W.character : 4 * W.character;
+    std::string k = W.twice_weight % 2 ? std::to_string(W.twice_weight) + "/2" : std::to_string(W.twice_weight / 2);
+    long L = fmpz_get_si(sturm_bound(W, Fmpz(0))) + 60;
+    script += "F=mffrometaquo(" + gp_eta(c.fam) + "); print(insieve(F," + std::to_string(c.r) + "," + std::to_string(c.M) +
+              "," + std::to_string(W.level) + "," + k + "," + std::to_string(disc) + "," + std::to_string(L) + "));\n";
+  }
+  std::istringstream out(circlet::testing::gp_run(script));
+  for (const auto& c : cases) {
+    std::string in;
+    out >> in;
+    INFO(c.fam << " sieved to " << c.r << " mod " << c.M << " in " << c.W.str() << ": PARI " << in);
+    CHECK(in == "1");
   }
 }
