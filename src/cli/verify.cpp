@@ -8,6 +8,7 @@
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
 #include "circlet/version.hpp"
+#include "modform/proof.hpp"
 #include "progression/certificate.hpp"
 #include "progression/verify.hpp"
 
@@ -27,6 +28,14 @@ void run_verify(const VerifyCliOptions& o) {
     j = nlohmann::json::parse(text);
   } catch (const nlohmann::json::exception& e) {
     throw UserError(o.path + " is not JSON: " + e.what());
+  }
+  if (j.is_object() && j.contains("format") && j["format"] == kProofCertificateFormat) {  // src/modform/proof.hpp
+    ProofVerifyReport pr = verify_proof_certificate(j);
+    for (const auto& s : pr.failures) std::cout << "FAILED: " << s << "\n";
+    std::cout << o.path << (pr.ok() ? ": proof certificate verified (" + std::to_string(pr.checked.size()) + " checks)\n"
+                                    : ": proof certificate REJECTED\n") << std::flush;
+    if (!pr.ok()) std::exit(1);
+    return;
   }
   // Not a certificate at all, or one from another program version: bad input (status 2),
   // before any claim is checked. Edited claims are a failed verification (status 1).

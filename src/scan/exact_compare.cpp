@@ -4,6 +4,8 @@
 #include <map>
 
 #include "core/error.hpp"
+#include "modform/proof.hpp"
+#include "modform/relation.hpp"
 
 namespace circlet {
 
@@ -96,6 +98,67 @@ std::string ExactComparison::describe() const {
   for (const auto& v : vanishing)
     s += "; n=" + std::to_string(v.second) + " mod " + std::to_string(v.first) + ": both vanish";
   return s;
+}
+
+namespace {
+
+std::string term_text(const Family& f, const Progression& ap) {
+  return f.name() + "(" + (ap.A == 1 ? std::string() : std::to_string(ap.A)) + "n" +
+         (ap.B ? "+" + std::to_string(ap.B) : std::string()) + ")";
+}
+
+ProvedRelation prove_text(const std::string& text) {
+  ProofResult r = prove_relation(parse_relation(text));
+  return {r.relation.str(), proof_verdict_name(r.verdict), r.reason};
+}
+
+}  // namespace
+
+std::vector<ProvedRelation> prove_exact_comparison(const ExactComparison& e, const Family& F, const Progression& ap,
+                                                   const Family& G, const Progression& ap2) {
+  std::vector<ProvedRelation> out;
+  const std::string f = term_text(F, ap), g = term_text(G, ap2);
+  if (e.whole.relation == Relation::Proportional) {
+    out.push_back(prove_text(f + " = " + e.whole.k.str() + "*" + g));
+    return out;
+  }
+  if (e.whole.relation == Relation::BothVanish) {
+    out.push_back(prove_text(f + " = 0"));
+    out.push_back(prove_text(g + " = 0"));
+    return out;
+  }
+  std::map<long, std::vector<const SubProportionality*>> by_p;
+  for (const auto& x : e.sub) by_p[x.p].push_back(&x);
+  for (const auto& [p, xs] : by_p) {
+    std::map<std::string, std::vector<long>> by_k;
+    for (const auto* x : xs) by_k[x->k.str()].push_back(x->j);
+    for (const auto& [k, js] : by_k) {
+      if (static_cast<long>(js.size()) == p - 1) {
+        long missing = 0;
+        while (std::find(js.begin(), js.end(), missing) != js.end()) ++missing;
+        out.push_back(prove_text(f + " = " + k + "*" + g + " for n mod " + std::to_string(p) + " != " + std::to_string(missing)));
+      } else {
+        for (long j : js)
+          out.push_back(prove_text(f + " = " + k + "*" + g + " for n mod " + std::to_string(p) + " = " + std::to_string(j)));
+      }
+    }
+  }
+  for (const auto& v : e.vanishing) {
+    const std::string cls = " for n mod " + std::to_string(v.first) + " = " + std::to_string(v.second);
+    out.push_back(prove_text(f + " = 0" + cls));
+    out.push_back(prove_text(g + " = 0" + cls));
+  }
+  return out;
+}
+
+std::string describe_proved(const std::vector<ProvedRelation>& rs) {
+  std::string s;
+  for (const auto& r : rs) {
+    if (!s.empty()) s += "; ";
+    s += r.verdict + ": " + r.relation;
+    if (r.verdict != "PROVED") s += " (" + r.reason + ")";
+  }
+  return s.empty() ? "no relation found" : s;
 }
 
 }  // namespace circlet

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "core/flint_types.hpp"
+#include "family/family.hpp"
 #include "family/progression.hpp"
 #include "series/integer_series.hpp"
 
@@ -43,5 +44,22 @@ struct ExactComparison {
 
 ExactComparison compare_pair_exact(const IntegerSeries& f, const Progression& ap, const IntegerSeries& g,
                                    const Progression& ap2, long K, const std::vector<long>& primes);
+
+/// A relation an exact comparison suggests, handed to the prover (src/modform/proof.hpp).
+struct ProvedRelation {
+  std::string relation;  // in the syntax of `circlet prove`
+  std::string verdict;   // "PROVED", "REFUTED" (with the first counterexample) or "UNKNOWN"
+  std::string reason;    // the prover's one line
+};
+
+/// Every relation the comparison found, proved for all n or refuted: the whole pair
+/// F(A n + B) = k·G(A' n + B'); a vanishing pair as F(..) = 0 and G(..) = 0; and per p,
+/// the classes n ≡ j (mod p) — "for n mod p != j" when all but one class share k,
+/// otherwise one relation per proportional or vanishing class.
+std::vector<ProvedRelation> prove_exact_comparison(const ExactComparison& e, const Family& F, const Progression& ap,
+                                                   const Family& G, const Progression& ap2);
+
+/// One line: "PROVED: <relation>; REFUTED: <relation> (<reason>); …".
+std::string describe_proved(const std::vector<ProvedRelation>& rs);
 
 }  // namespace circlet

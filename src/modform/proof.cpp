@@ -1,0 +1,331 @@
+#include "modform/proof.hpp"
+
+#include <flint/fmpq.h>
+#include <openssl/evp.h>
+
+#include <map>
+#include <numeric>
+
+#include "circlet/version.hpp"
+#include "core/error.hpp"
+#include "core/provenance.hpp"
+#include "modform/eta_product.hpp"
+#include "series/eta_series.hpp"
+
+namespace circlet {
+
+namespace {
+
+std::string sha256_hex(const std::string& data) {
+  unsigned char md[EVP_MAX_MD_SIZE];
+  unsigned int len = 0;
+  EVP_MD_CTX* ctx = EVP_MD_CTX_new();
+  CIRCLET_ASSERT(ctx != nullptr, "EVP_MD_CTX_new failed");
+  EVP_DigestInit_ex(ctx, EVP_sha256(), nullptr);
+  EVP_DigestUpdate(ctx, data.data(), data.size());
+  EVP_DigestFinal_ex(ctx, md, &len);
+  EVP_MD_CTX_free(ctx);
+  static const char* hex = "0123456789abcdef";
+  std::string s;
+  for (unsigned int i = 0; i < len; ++i) {
+    s += hex[md[i] >> 4];
+    s += hex[md[i] & 15];
+  }
+  return s;
+}
+
+long pmod(long a, long m) { return ((a % m) + m) % m; }
+
+
+const char* kTheorems[] = {
+    "Gordon-Hughes-Newman: level and character of an eta quotient (Ono, The web of modularity, 2004, Thm 1.64; quoted from memory)",
+    "Ligozat: order of an eta quotient at the cusp c/d (Ono, The web of modularity, 2004, Thm 1.65; quoted from memory)",
+    "Shimura (1973): half-integral weight on Gamma0(4N) with the multiplier of theta (quoted from memory)",
+    "Ono, The web of modularity (2004), Props 2.22 and 3.7: U(d), V(d) (quoted from memory)",
+    "Koblitz, Introduction to elliptic curves and modular forms, GTM 97, Prop III.3.17: twists",
+    "Sturm, On the congruence of modular forms, LNM 1240 (1987): the bound (k/12)[SL2(Z):Gamma]",
+};
+
+}  // namespace
+
+std::string proof_verdict_name(ProofVerdict v) {
+  switch (v) {
+    case ProofVerdict::Proved: return "PROVED";
+    case ProofVerdict::Refuted: return "REFUTED";
+    case ProofVerdict::Unknown: return "UNKNOWN";
+  }
+  return "UNKNOWN";
+}
+
+std::string proof_certificate_digest(const nlohmann::json& cert) {
+  nlohmann::json c = cert;
+  if (c.is_object()) c.erase("digest");
+  return "sha256:" + sha256_hex(c.dump());
+}
+
+ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
+  ProofResult res;
+  res.relation = rel;
+  nlohmann::json cert;
+  cert["format"] = kProofCertificateFormat;
+  cert["relation"] = rel.str();
+  cert["modulus"] = rel.modulus.str();
+
+  // 1. Each family as an eta quotient, with its level, weight, character, cusp orders.
+  struct TermData {
+    FamilyForm ff;
+    EtaModularity em;
+    FormSpace space;
+    std::vector<ChainStep> chain;
+    Fmpq beta;
+    long M = 0, R = 0, a = 1, b = 1;
+  };
+  std::vector<TermData> td;
+  bool all_ok = true;
+  std::string why;
+  nlohmann::json jterms = nlohmann::json::array();
+  for (const auto& t : rel.terms) {
+    TermData d;
+    d.ff = family_form(t.family);
+    d.em = eta_modularity(d.ff.eta);
+    nlohmann::json jt;
+    jt["family"] = t.family.name();
+    jt["coefficient"] = t.coeff.str();
+    jt["A"] = t.A;
+    jt["B"] = t.B;
+    jt["eta_quotient"] = d.ff.eta.str();
+    jt["eta_quotient_meaning"] = "sum_n " + t.family.name() + "(n) q^(" + std::to_string(d.ff.D) + "n+" +
+                                 std::to_string(d.ff.shift) + ")";
+    CIRCLET_ASSERT(d.ff.eta.twice_weight() == t.family.twice_weight(), "weight of the eta quotient");
+    if (!d.em.ok) {
+      all_ok = false;
+      why = t.family.name() + ": no level found by Gordon-Hughes-Newman";
+    } else {
+      jt["level"] = d.em.level;
+      jt["twice_weight"] = d.em.twice_weight;
+      jt["character"] = std::to_string(d.em.character);
+      jt["level_rule"] = d.em.rule;
+      nlohmann::json orders = nlohmann::json::array();
+      bool holo = true;
+      for (const auto& [dd, o] : ligozat_orders(d.ff.eta, d.em.level)) {
+        orders.push_back({{"cusp_denominator", dd}, {"order", o.str()}});
+        if (fmpq_sgn(o.get()) < 0) holo = false;
+      }
+      jt["cusp_orders"] = orders;
+      jt["holomorphic"] = holo ? "yes" : "no";
+      if (!holo) {
+        all_ok = false;
+        why = t.family.name() + ": not holomorphic at every cusp";
+      }
+      d.space.twice_weight = d.em.twice_weight;
+      d.space.level = d.em.level;
+      d.space.character = d.em.character;
+      d.space.support_mod = d.ff.D;
+      d.space.support_res = pmod(d.ff.shift, d.ff.D);
+    }
+    // β = (B + s)/A with s = shift/D: F(An+B) sits at exponent D(An+B)+shift = M n + R.
+    d.M = d.ff.D * t.A;
+    d.R = d.ff.D * t.B + d.ff.shift;
+    fmpq_set_si(d.beta, d.R, static_cast<ulong>(d.M));
+    jt["beta"] = d.beta.str();
+    jterms.push_back(jt);
+    td.push_back(std::move(d));
+  }
+
+  // 2. Alignment and weights.
+  bool aligned = true, same_weight = true;
+  for (const auto& d : td) {
+    if (d.beta != td.front().beta) aligned = false;
+    if (d.ff.eta.twice_weight() != td.front().ff.eta.twice_weight()) same_weight = false;
+  }
+  if (!aligned) {
+    all_ok = false;
+    why = "not aligned: the exponents L(n + beta_i) differ (beta = " + td.front().beta.str() +
+          " for the first term); no single modular form carries the relation";
+  } else if (!same_weight) {
+    all_ok = false;
+    why = "the terms have different weights";
+  }
+
+  long L = 1, c = 0;
+  FormSpace W;
+  std::vector<ChainStep> chain;
+  if (all_ok) {
+    L = fmpz_get_si(fmpq_denref(td.front().beta.get()));
+    c = fmpz_get_si(fmpq_numref(td.front().beta.get()));  // c = L·β
+    cert["alignment"] = {{"beta", td.front().beta.str()}, {"L", L}, {"m_of_n", "m = " + std::to_string(L) + "n + " + std::to_string(c)}};
+    std::vector<FormSpace> spaces;
+    for (size_t i = 0; i < td.size(); ++i) {
+      auto& d = td[i];
+      long g = std::gcd(d.M, L);
+      d.a = d.M / g;
+      d.b = L / g;
+      CIRCLET_ASSERT(d.R % d.a == 0, "alignment: a must divide R");
+      d.chain.push_back({"start: " + rel.terms[i].family.name(), d.em.rule, d.space});
+      FormSpace V = op_U(d.space, d.a, &d.chain);
+      V = op_sieve(V, d.R / d.a, d.M / d.a, &d.chain);
+      V = op_V(V, d.b, &d.chain);
+      jterms[i]["operators"] = "U_" + std::to_string(d.a) + ", sieve m = " + std::to_string(pmod(d.R / d.a, d.M / d.a)) +
+                               " mod " + std::to_string(d.M / d.a) + ", V_" + std::to_string(d.b);
+      jterms[i]["chain"] = chain_to_json(d.chain);
+      spaces.push_back(V);
+    }
+    W = op_combine(spaces, &chain);
+    if (rel.restricted) {
+      long LQ = L * rel.Q;
+      long rm = pmod(L * rel.r + c, LQ);
+      W = rel.complement ? op_complement(W, rm, LQ, &chain) : op_sieve(W, rm, LQ, &chain);
+    }
+    cert["combination_chain"] = chain_to_json(chain);
+    cert["space"] = space_to_json(W);
+    res.space = W;
+    res.index = space_index(W);
+    res.bound = sturm_bound(W, rel.modulus);
+    cert["index"] = res.index.str();
+    cert["sturm_bound"] = res.bound.str();
+    cert["bound_rule"] = sturm_rule(W, rel.modulus);
+  }
+  cert["terms"] = jterms;
+
+  // 3. Which n to compare: up to the Sturm bound (m = L n + c ≤ bound), at least min_n.
+  long n_max = -1;
+  bool bound_ok = false;
+  if (all_ok) {
+    if (fmpz_cmp_si(res.bound, opt.max_m) <= 0) {
+      long B = fmpz_get_si(res.bound);
+      n_max = B >= c ? (B - c) / L : -1;
+      bound_ok = true;
+    } else {
+      why = "the Sturm bound " + res.bound.str() + " exceeds the coefficient limit " + std::to_string(opt.max_m);
+    }
+  }
+  long n_check = std::max(n_max, opt.min_n);
+  // Keep the comparison within the series engine's reach.
+  for (const auto& t : rel.terms) {
+    long lim = (opt.max_m - t.B) / t.A;
+    if (lim < n_check) {
+      n_check = std::max(0L, lim);
+      if (bound_ok && n_check < n_max) {
+        bound_ok = false;
+        why = "the coefficients up to the bound are beyond the limit " + std::to_string(opt.max_m);
+      }
+    }
+  }
+
+  // 4. Exact coefficients, one series per family.
+  std::map<std::string, IntegerSeries> series;
+  std::map<std::string, long> need;
+  for (const auto& t : rel.terms) {
+    long n = t.A * n_check + t.B;
+    auto& v = need[t.family.name()];
+    v = std::max(v, n);
+  }
+  for (const auto& [name, n] : need) series.emplace(name, family_series(Family::parse(name), n));
+  // Integer coefficients: λ_i · den (den = lcm of the denominators).
+  Fmpz den(1);
+  for (const auto& t : rel.terms) fmpz_lcm(den, den, fmpq_denref(t.coeff.get()));
+  std::vector<Fmpz> lam;
+  for (const auto& t : rel.terms) {
+    Fmpz x;
+    fmpz_divexact(x, den, fmpq_denref(t.coeff.get()));
+    fmpz_mul(x, x, fmpq_numref(t.coeff.get()));
+    lam.push_back(x);
+  }
+  std::string digest_text;
+  Fmpz total, rem;
+  bool refuted = false;
+  for (long n = 0; n <= n_check && !refuted; ++n) {
+    if (rel.restricted && ((n % rel.Q == rel.r) == rel.complement)) continue;
+    fmpz_zero(total);
+    std::string line = std::to_string(n);
+    std::vector<std::string> vals;
+    for (size_t i = 0; i < rel.terms.size(); ++i) {
+      const auto& t = rel.terms[i];
+      const fmpz* v = series.at(t.family.name()).at(t.A * n + t.B);
+      fmpz_addmul(total, lam[i], v);
+      Fmpz vv;
+      fmpz_set(vv, v);
+      vals.push_back(vv.str());
+      line += " " + vals.back();
+    }
+    digest_text += line + "\n";
+    bool zero = fmpz_is_zero(rel.modulus) ? fmpz_is_zero(total) : (fmpz_mod(rem, total, rel.modulus), fmpz_is_zero(rem));
+    if (!zero) {
+      refuted = true;
+      res.counterexample_n = n;
+      res.counterexample_values = vals;
+      res.counterexample_total = total.str();
+      if (!fmpz_is_one(den)) res.counterexample_total += "/" + den.str();
+    }
+  }
+  res.n_checked = refuted ? res.counterexample_n : n_check;
+  res.coefficient_digest = "sha256:" + sha256_hex(digest_text);
+  if (refuted) {
+    res.verdict = ProofVerdict::Refuted;
+    std::string vs;
+    for (size_t i = 0; i < rel.terms.size(); ++i)
+      vs += (i ? ", " : "") + rel.terms[i].family.name() + "(" + std::to_string(rel.terms[i].A * res.counterexample_n + rel.terms[i].B) +
+            ") = " + res.counterexample_values[i];
+    res.reason = "fails at n = " + std::to_string(res.counterexample_n) + ": " + vs + "; left side = " + res.counterexample_total;
+  } else if (all_ok && bound_ok) {
+    res.verdict = ProofVerdict::Proved;
+    res.reason = "coefficients m <= " + res.bound.str() + " of a form in " + W.str() + " vanish" +
+                 (fmpz_is_zero(rel.modulus) ? "" : " mod " + rel.modulus.str());
+  } else {
+    res.verdict = ProofVerdict::Unknown;
+    res.reason = why + "; no counterexample for n <= " + std::to_string(n_check);
+  }
+  cert["checked"] = {{"n_from", 0},
+                     {"n_to", res.n_checked},
+                     {"lines", "one per n in the class: n, then F_i(A_i n + B_i) for each term"},
+                     {"coefficient_digest", res.coefficient_digest}};
+  cert["verdict"] = proof_verdict_name(res.verdict);
+  cert["reason"] = res.reason;
+  if (refuted)
+    cert["counterexample"] = {{"n", res.counterexample_n}, {"values", res.counterexample_values}, {"left_side", res.counterexample_total}};
+  nlohmann::json th = nlohmann::json::array();
+  for (const char* s : kTheorems) th.push_back(s);
+  cert["theorems"] = th;
+  cert["provenance"] = Provenance::now(command_line()).to_json();
+  cert["digest"] = proof_certificate_digest(cert);
+  res.certificate = cert;
+  return res;
+}
+
+ProofVerifyReport verify_proof_certificate(const nlohmann::json& cert) {
+  ProofVerifyReport r;
+  try {
+    if (!cert.is_object() || !cert.contains("format") || cert["format"] != kProofCertificateFormat) {
+      r.failures.push_back("not a proof certificate (format)");
+      return r;
+    }
+    if (!cert.contains("digest") || !cert["digest"].is_string()) {
+      r.failures.push_back("no digest");
+    } else if (cert["digest"].get<std::string>() != proof_certificate_digest(cert)) {
+      r.failures.push_back("digest: the certificate content was changed after it was written");
+    } else {
+      r.checked.push_back("digest of the certificate content");
+    }
+    if (!cert.contains("relation") || !cert["relation"].is_string()) {
+      r.failures.push_back("no relation text");
+      return r;
+    }
+    LinearRelation rel = parse_relation(cert["relation"].get<std::string>());
+    r.checked.push_back("relation parses: " + rel.str());
+    ProofResult fresh = prove_relation(rel);
+    const nlohmann::json& f = fresh.certificate;
+    for (const char* key : {"modulus", "alignment", "terms", "combination_chain", "space", "index", "sturm_bound",
+                            "bound_rule", "checked", "verdict", "reason", "counterexample", "theorems"}) {
+      bool in_cert = cert.contains(key), in_fresh = f.contains(key);
+      if (in_cert != in_fresh || (in_cert && cert[key] != f[key]))
+        r.failures.push_back(std::string(key) + ": recorded value differs from the recomputation");
+      else if (in_cert)
+        r.checked.push_back(std::string(key) + " recomputed");
+    }
+  } catch (const std::exception& e) {
+    r.failures.push_back(std::string("malformed certificate: ") + e.what());
+  }
+  return r;
+}
+
+}  // namespace circlet
