@@ -13,6 +13,7 @@
 #include <thread>
 
 #include "core/error.hpp"
+#include "core/memory_limit.hpp"
 #include "series/crt.hpp"
 
 namespace circlet {
@@ -350,28 +351,13 @@ SeriesPlan plan_eta_series(const EtaQuotient& quotient, long N, int threads) {
   return make_plan(quotient, N, threads, eta_quotient_coefficient_bound(quotient, N, 64));
 }
 
-double available_memory_bytes() {
-  if (const char* env = std::getenv("CIRCLET_MEMORY_AVAILABLE")) {
-    char* end = nullptr;
-    double v = std::strtod(env, &end);
-    if (end != env && v >= 0) return v;
-  }
-  std::ifstream in("/proc/meminfo");
-  std::string key;
-  double kb;
-  std::string unit;
-  while (in >> key >> kb) {
-    std::getline(in, unit);
-    if (key == "MemAvailable:") return kb * 1024.0;
-  }
-  return -1;
-}
+double available_memory_bytes() { return memory_budget().bytes; }
 
 void check_resources(const SeriesPlan& plan) {
-  const double avail = available_memory_bytes();
-  if (avail >= 0 && plan.memory_bytes > avail)
+  const MemoryBudget budget = memory_budget();
+  if (budget.bytes >= 0 && plan.memory_bytes > budget.bytes)
     throw UserError("N = " + std::to_string(plan.N) + " needs about " + gigabytes(plan.memory_bytes) +
-                    " of memory, more than the " + gigabytes(avail) + " available");
+                    " of memory, more than the " + gigabytes(budget.bytes) + " available (" + budget.source + ")");
   if (plan.N > kMaxSeriesN)
     throw UserError("N = " + std::to_string(plan.N) + " is beyond the series engine's limit " +
                     std::to_string(kMaxSeriesN) + " (NTL FFT length 2^25)");
