@@ -12,6 +12,7 @@
 #include "cli/command.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
+#include "core/progress_line.hpp"
 #include "core/provenance.hpp"
 #include "family/family.hpp"
 #include "family/progression.hpp"
@@ -26,34 +27,6 @@ struct CountOptions {
   std::string to, at, ap;
   bool json = false;
   std::string output;
-};
-
-// Shows "circlet count: <stage> <pct>%" on stderr, only when stderr is a terminal
-// and the run has lasted more than two seconds; clears the line at the end.
-class ProgressLine {
- public:
-  ProgressLine() : enabled_(stderr_is_terminal()), start_(Clock::now()) {}
-  ~ProgressLine() { finish(); }
-  void update(const std::string& stage, double fraction) {
-    if (!enabled_) return;
-    const auto now = Clock::now();
-    if (now - start_ < std::chrono::seconds(2)) return;
-    if (shown_ && now - last_ < std::chrono::milliseconds(200)) return;
-    last_ = now;
-    shown_ = true;
-    std::fprintf(stderr, "\rcirclet count: %-14s %5.1f%%", stage.c_str(), 100.0 * fraction);
-    std::fflush(stderr);
-  }
-  void finish() {
-    if (shown_) std::fprintf(stderr, "\r\033[K");
-    shown_ = false;
-  }
-
- private:
-  using Clock = std::chrono::steady_clock;
-  bool enabled_;
-  bool shown_ = false;
-  Clock::time_point start_, last_;
 };
 
 std::string eta_quotient_text(const EtaQuotient& q) {
@@ -80,7 +53,7 @@ void run_count(const CountOptions& opt) {
 
   IntegerSeries series;
   {
-    ProgressLine line;
+    ProgressLine line("count");
     series = compute_series(plan, [&line](const std::string& stage, double f) { line.update(stage, f); });
   }
 
@@ -158,7 +131,7 @@ const Registration registration{CommandSpec{
     "count", 10, [](CLI::App& app) {
       auto opt = std::make_shared<CountOptions>();
       auto* cmd = app.add_subcommand("count", "exact counts c_t(n), sc_t(n), r_S(n) from the generating function");
-      cmd->add_option("family", opt->family, "family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S>")
+      cmd->add_option("family", opt->family, "family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S> (sums of S squares)")
           ->required();
       cmd->add_option("--to", opt->to, "all n = 0..N (with --ap: k = 0..K)");
       cmd->add_option("--at", opt->at, "the single value n = N");

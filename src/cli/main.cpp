@@ -8,6 +8,7 @@
 #include "cli/command.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
+#include "core/library_errors.hpp"
 #include "core/provenance.hpp"
 #include "core/resource_guard.hpp"
 
@@ -75,6 +76,7 @@ std::string command_list(CLI::App& app) {
 int main(int argc, char** argv) {
   using namespace circlet;
   set_command_line(argc, argv);
+  install_library_error_handlers();
   CLI::App app{"circlet: exact counts, certified circle-method main terms and ratios of t-core partition families"};
   app.set_version_flag("--version", std::string("circlet ") + kVersion);
   app.require_subcommand(1);

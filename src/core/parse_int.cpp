@@ -44,4 +44,18 @@ long parse_int_in_range(const std::string& what, const std::string& text, long m
   return v;
 }
 
+Fmpz parse_nonnegative_fmpz(const std::string& what, const std::string& text, long max_digits) {
+  if (text.empty()) throw UserError(what + " expects a non-negative integer, got an empty string");
+  if (text[0] == '-' && is_decimal_digits(text.substr(1)))
+    throw UserError(what + " must be a non-negative integer, got " + text);
+  if (!is_decimal_digits(text))
+    throw UserError(what + ": '" + text + "' is not an integer (decimal digits only)");
+  if (static_cast<long>(text.size()) > max_digits)
+    throw UserError(what + " has " + std::to_string(text.size()) + " digits, more than the " +
+                    std::to_string(max_digits) + " accepted");
+  Fmpz v;
+  fmpz_set_str(v.get(), text.c_str(), 10);  // digits only: cannot fail
+  return v;
+}
+
 }  // namespace circlet

@@ -10,6 +10,8 @@
 // "is too large (at most M)".
 #include <string>
 
+#include "core/flint_types.hpp"
+
 namespace circlet {
 
 /// True when `text` is a non-empty string of ASCII digits '0'..'9'.
@@ -22,5 +24,9 @@ long parse_nonnegative(const std::string& what, const std::string& text, long ma
 /// As parse_nonnegative, and also refuses values below `min` with
 /// "<what> must be between <min> and <max>".
 long parse_int_in_range(const std::string& what, const std::string& text, long min, long max);
+
+/// A non-negative decimal integer of any size (e.g. --at N), by the same rule;
+/// at most max_digits digits.
+Fmpz parse_nonnegative_fmpz(const std::string& what, const std::string& text, long max_digits = 100000);
 
 }  // namespace circlet

@@ -57,10 +57,12 @@ void require_resources(const ResourceEstimate& e) {
   const double limit = time_limit_seconds();
   const bool over = e.seconds < 0 || e.seconds > limit;
   if (over && !allow_large())
-    throw UserError(e.what + " would take about " + format_seconds(e.seconds) + ", more than the limit of " +
-                    format_seconds(limit) + why + lift);
+    throw UserError(e.what + (e.seconds < 0 ? " may take unbounded time" : " would take about " + format_seconds(e.seconds)) +
+                    ", more than the limit of " + format_seconds(limit) + why + lift);
   if (e.seconds < 0 || e.seconds > kNoteSeconds)
-    std::cerr << "circlet: note: " << e.what << " will take about " << format_seconds(e.seconds) << why << "\n";
+    std::cerr << "circlet: note: " << e.what
+              << (e.seconds < 0 ? " may take unbounded time" : " will take about " + format_seconds(e.seconds)) << why
+              << "\n";
 }
 
 }  // namespace circlet

@@ -13,6 +13,7 @@
 #include <thread>
 
 #include "core/error.hpp"
+#include "core/library_errors.hpp"
 #include "core/memory_limit.hpp"
 #include "series/crt.hpp"
 
@@ -48,7 +49,11 @@ void parallel_for(long n, int threads, const std::function<void(long)>& fn) {
     }
   };
   std::vector<std::thread> helpers;
-  for (int t = 1; t < threads && t < n; ++t) helpers.emplace_back(work);
+  for (int t = 1; t < threads && t < n; ++t)
+    helpers.emplace_back([&work] {
+      install_library_error_handlers();  // NTL's handler is per thread
+      work();
+    });
   work();
   for (auto& h : helpers) h.join();
   if (failure) std::rethrow_exception(failure);
@@ -418,7 +423,11 @@ IntegerSeries compute_series(const SeriesPlan& plan, const SeriesProgress& progr
     worker();
   } else {
     std::vector<std::thread> pool;
-    for (size_t t = 0; t < nthreads; ++t) pool.emplace_back(worker);
+    for (size_t t = 0; t < nthreads; ++t)
+      pool.emplace_back([&worker] {
+        install_library_error_handlers();  // NTL's handler is per thread
+        worker();
+      });
     for (auto& th : pool) th.join();
   }
   if (failure) std::rethrow_exception(failure);
