@@ -29,7 +29,7 @@ bool has_data_rows(const std::string& text) { return text.find("\n5,7\n") != std
 
 }  // namespace
 
-TEST_CASE("-o - means standard output", "[cli][outputs]") {
+TEST_CASE("the output path dash (-o -) means standard output", "[cli][outputs]") {
   const std::string d = scratch_dir();
   const auto r = run_circlet("count c7 --to 5 -o -");
   CHECK(r.status == 0);

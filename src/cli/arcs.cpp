@@ -54,6 +54,7 @@ std::string enclosure_text(const ArcTerm& t, slong digits) {
 void run_arcs(const ArcsOptions& opt) {
   const Family family = Family::parse(opt.family);
   if (opt.at.empty()) throw UserError("give the argument n with --at N");
+  if (opt.at[0] == '-' && is_decimal_digits(opt.at.substr(1))) throw UserError("--at: n must be non-negative");
   const Fmpz n = parse_nonnegative_fmpz("--at", opt.at);
   const long K = parse_nonnegative("--upto", opt.upto, kMaxUpto);
   const slong prec = parse_int_in_range("--prec", opt.prec, 32, 100000);
