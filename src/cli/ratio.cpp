@@ -41,6 +41,8 @@ constexpr ulong kShownPrimes[] = {2, 3, 5, 7};
 // The main-term ratio is a displayed column (about six certified digits at k = 2 with
 // P = 10^5, more for k ≥ 3); the verdict does not use it.
 constexpr ulong kRatioMaxPrime = 100000;
+// Up to this many rows the main terms are computed one by one (full precision).
+constexpr long kSingleRouteRows = 256;
 
 /// Main terms of `model` at first + step·k for k = 0..count−1, in time linear in the
 /// rows: odd rank ≥ 5 through one pass over the primes (main_term_batch.hpp), other
@@ -48,7 +50,9 @@ constexpr ulong kRatioMaxPrime = 100000;
 std::vector<std::optional<MainTerm>> main_terms_along(const QuadraticModel& model, long first, long step, long count,
                                                       slong prec, ProgressLine& line, const std::string& stage) {
   std::vector<std::optional<MainTerm>> out(static_cast<size_t>(count));
-  if (model.rank % 2 == 1 && model.rank >= 5) {
+  // Short tables keep the full-precision single-value route (its cost grows with n,
+  // harmless for a few hundred rows); long ones take the linear batched pass.
+  if (model.rank % 2 == 1 && model.rank >= 5 && count > kSingleRouteRows) {
     const ulong P = std::min<ulong>(main_term_batch_prime_bound(model.rank, prec), kRatioMaxPrime);
     std::vector<Arb> b = main_term_batch(model, first, step, count, P, prec);
     for (long k = 0; k < count; ++k) {
