@@ -37,6 +37,15 @@ TEST_CASE("the output path dash (-o -) means standard output", "[cli][outputs]")
   CHECK(::access("-", F_OK) != 0);  // no file named "-" in the working directory of the test
 }
 
+TEST_CASE("-o /dev/stdout writes to standard output and leaves the entry alone", "[cli][outputs]") {
+  const auto r = run_circlet("count c7 --to 5 -o /dev/stdout");
+  CHECK(r.status == 0);
+  CHECK(has_data_rows(r.out));
+  struct stat st {};
+  REQUIRE(::lstat("/dev/stdout", &st) == 0);
+  CHECK(S_ISLNK(st.st_mode));
+}
+
 TEST_CASE("a FIFO is written through, not replaced", "[cli][outputs]") {
   const std::string d = scratch_dir(), fifo = d + "/fifo", got = d + "/got.csv";
   REQUIRE(::mkfifo(fifo.c_str(), 0644) == 0);
