@@ -186,3 +186,23 @@ TEST_CASE("a 5000-digit n is refused by the guard before factoring starts", "[cl
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("give --allow-large"));
 }
+
+TEST_CASE("ratio shows progress on standard error when it is a terminal", "[cli][progress]") {
+  if (std::system("command -v script >/dev/null 2>&1") != 0) {
+    WARN("util-linux `script` not found: no pseudo-terminal for this test");
+    return;
+  }
+  const std::string d = scratch_dir();
+  // script(1) gives the command a pseudo-terminal; the line is shown from the start
+  // (CIRCLET_PROGRESS_AFTER=0 instead of the 2 s delay).
+  const std::string cmd = std::string("CIRCLET_PROGRESS_AFTER=0 script -qc '") + CIRCLET_BINARY +
+                          " ratio c6 sc11 --to 3000 -o " + d +
+                          "/r.csv' /dev/null > " + d + "/tty.txt";
+  REQUIRE(std::system(cmd.c_str()) == 0);
+  const std::string tty = slurp_file(d + "/tty.txt");
+  CHECK_THAT(tty, Catch::Contains("circlet ratio: rows"));
+  // Without a terminal (the other tests): no progress line.
+  const auto quiet = run_circlet("ratio c6 sc11 --to 5 -o " + d + "/q.csv");
+  CHECK(quiet.err.find("circlet ratio: rows") == std::string::npos);
+  std::system(("rm -rf " + d).c_str());
+}

@@ -3,20 +3,28 @@
 #include <unistd.h>
 
 #include <cstdio>
+#include <cstdlib>
 
 namespace circlet {
 
 bool stderr_is_a_terminal() { return ::isatty(STDERR_FILENO) == 1; }
 
 ProgressLine::ProgressLine(std::string command)
-    : command_(std::move(command)), enabled_(stderr_is_a_terminal()), start_(Clock::now()) {}
+    : command_(std::move(command)), enabled_(stderr_is_a_terminal()), start_(Clock::now()) {
+  // CIRCLET_PROGRESS_AFTER=<milliseconds> changes the 2 s delay (tests use 0).
+  if (const char* env = std::getenv("CIRCLET_PROGRESS_AFTER")) {
+    char* end = nullptr;
+    const long ms = std::strtol(env, &end, 10);
+    if (end != env && *end == '\0' && ms >= 0) delay_ = std::chrono::milliseconds(ms);
+  }
+}
 
 ProgressLine::~ProgressLine() { finish(); }
 
 void ProgressLine::update(const std::string& stage, double fraction, long done) {
   if (!enabled_) return;
   const auto now = Clock::now();
-  if (now - start_ < std::chrono::seconds(2)) return;
+  if (now - start_ < delay_) return;
   if (shown_ && now - last_ < std::chrono::milliseconds(200)) return;
   last_ = now;
   shown_ = true;

@@ -2,6 +2,7 @@
 // "circlet <command>: <stage> 42.0% (1200/s, ETA 3 s)" on standard error, only
 // when standard error is a terminal and the run has lasted two seconds; the line
 // is rewritten in place at most five times a second and cleared at the end.
+// CIRCLET_PROGRESS_AFTER=<milliseconds> changes the delay of two seconds.
 #include <chrono>
 #include <string>
 
@@ -24,6 +25,7 @@ class ProgressLine {
   bool enabled_;
   bool shown_ = false;
   Clock::time_point start_, last_;
+  Clock::duration delay_ = std::chrono::seconds(2);
 };
 
 /// True when standard error is a terminal.
