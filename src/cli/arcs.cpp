@@ -27,8 +27,7 @@ namespace {
 struct ArcsOptions {
   std::string family;
   std::string at, upto = "20";
-  long prec = 128;
-  long digits = 15;
+  std::string prec = "128", digits = "15";
   bool json = false;
   bool gauss = false;
   std::string output;
@@ -55,10 +54,11 @@ std::string enclosure_text(const ArcTerm& t, slong digits) {
 void run_arcs(const ArcsOptions& opt) {
   const Family family = Family::parse(opt.family);
   if (opt.at.empty()) throw UserError("give the argument n with --at N");
-  const Fmpz n = Fmpz::from_str(opt.at);
-  if (fmpz_sgn(n.get()) < 0) throw UserError("--at: n must be non-negative");
+  if (opt.at[0] == '-' && is_decimal_digits(opt.at.substr(1))) throw UserError("--at: n must be non-negative");
+  const Fmpz n = parse_nonnegative_fmpz("--at", opt.at);
   const long K = parse_nonnegative("--upto", opt.upto, kMaxUpto);
-  if (opt.prec < 32 || opt.prec > 100000) throw UserError("--prec must be between 32 and 100000 bits");
+  const slong prec = parse_int_in_range("--prec", opt.prec, 32, 100000);
+  const slong dg = parse_int_in_range("--digits", opt.digits, 1, 1000);
   const QuadraticModel model = quadratic_model(family);
   if (model.rank < 2) throw UserError("family " + family.name() + " has rank " + std::to_string(model.rank) +
                                       ": no circle-method main term");
@@ -69,7 +69,6 @@ void run_arcs(const ArcsOptions& opt) {
 
   OutputSink sink(opt.output);
 
-  const slong prec = opt.prec;
   const ArcExpansion e = arc_expansion(model, n, static_cast<ulong>(K), prec);
   // Route (b): the Gauss-sum form of each coefficient, which must pin the same rational.
   std::vector<std::string> gauss_text;
@@ -78,12 +77,11 @@ void run_arcs(const ArcsOptions& opt) {
       GaussArcCoefficient g = arc_coefficient_by_gauss_sums(model, n, t.k, prec);
       if (!g.exact || *g.exact != t.coefficient)
         throw InternalError("route (b) disagrees with route (a) at k = " + std::to_string(t.k));
-      gauss_text.push_back(ball_text(g.re, opt.digits));
+      gauss_text.push_back(ball_text(g.re, dg));
     }
   }
   const MainTerm M = main_term(model, n, prec);
   const bool contained = arb_overlaps(e.enclosure.get(), M.ball.get());
-  const slong dg = opt.digits;
 
   std::ostream& out = sink.stream();
   const Provenance prov = Provenance::now(command_line(), prec);
@@ -142,7 +140,7 @@ const Registration registration{CommandSpec{
       auto opt = std::make_shared<ArcsOptions>();
       auto* cmd = app.add_subcommand(
           "arcs", "major-arc terms sigma_inf(X) A_k(n)/k^w for k = 1..K, partial sums and a rigorous tail bound");
-      cmd->add_option("family", opt->family, "family: c<T>, sc<T>, sq<S>")->required();
+      cmd->add_option("family", opt->family, "family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S> (sums of S squares)")->required();
       cmd->add_option("--at", opt->at, "the argument n")->required();
       cmd->add_option("--upto", opt->upto, "largest denominator K (default 20)");
       cmd->add_option("--prec", opt->prec, "working precision in bits (default 128)");

@@ -7,6 +7,7 @@
 #include "cli/command.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
+#include "core/resource_guard.hpp"
 #include "family/progression.hpp"
 #include "progression/certificate.hpp"
 #include "progression/certify.hpp"
@@ -29,12 +30,21 @@ void run_certify(const CertifyCliOptions& o) {
   if (opt.Q_max < 3) throw UserError("--qmax must be at least 3");
   opt.prec = parse_nonnegative("--prec", o.prec, 100000);
   if (opt.prec < 64) throw UserError("--prec must be at least 64 bits");
+  {
+    // Cost model (measured, 2 cores): certify grows like prec^2, 2 s at 16000 bits;
+    // `verify` of the certificate costs about as much again.
+    ResourceEstimate e;
+    e.what = "certify at --prec " + std::to_string(opt.prec);
+    e.seconds = 8e-9 * double(opt.prec) * double(opt.prec) * (double(opt.Q_max) / 47.0);
+    e.reason = "time grows like prec^2";
+    require_resources(e);
+  }
+  OutputSink sink(o.output);
   Certificate c = certify_pair(pair, opt);
   std::string text = certificate_to_json(c).dump(2) + "\n";
-  OutputSink sink(o.output);
   sink.stream() << text;
   sink.finish();
-  if (sink.to_file()) {
+  {  // the verdict line, on standard error whether or not -o was given
     std::cerr << f.name() << "(" << ap.A << "n+" << ap.B << ") vs " << g.name() << "(" << ap2.A << "n+" << ap2.B
               << "): " << verdict_name(c.verdict) << " -- " << c.reason << "\n";
   }
@@ -45,10 +55,10 @@ const Registration registration{CommandSpec{
       auto o = std::make_shared<CertifyCliOptions>();
       auto* cmd = app.add_subcommand(
           "certify", "certify NON-CONVERGENT / CONSTANT / UNDECIDED for F(A n+B) / G(A' n+B') and write a certificate");
-      cmd->add_option("F", o->F, "first family, e.g. c6")->required();
+      cmd->add_option("F", o->F, "first family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S> (sums of S squares), e.g. c6")->required();
       cmd->add_option("G", o->G, "second family of the same weight, e.g. sc11")->required();
-      cmd->add_option("--ap", o->ap, "progression A,B of F (default 1,0)");
-      cmd->add_option("--ap2", o->ap2, "progression A2,B2 of G (default 1,0)");
+      cmd->add_option("--ap", o->ap, "progression A,B of F: F is taken at A*n+B (default 1,0)");
+      cmd->add_option("--ap2", o->ap2, "progression A2,B2 of G: G is taken at A2*n+B2 (A' and B' in docs/MATH.md §7; default 1,0)");
       cmd->add_option("--qmax", o->qmax, "largest prime pinned exactly (default 47)");
       cmd->add_option("--prec", o->prec, "working precision in bits (default 128)");
       cmd->add_option("-o,--output", o->output, "write the certificate to FILE (atomically) instead of standard output");

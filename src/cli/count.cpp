@@ -10,9 +10,9 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.hpp"
-#include "cli/progress_line.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
+#include "core/progress_line.hpp"
 #include "core/provenance.hpp"
 #include "family/family.hpp"
 #include "family/progression.hpp"
@@ -53,8 +53,10 @@ void run_count(const CountOptions& opt) {
 
   IntegerSeries series;
   {
-    ProgressLine line("count", (double)(n_max + 1), "coeff");  // rate in coefficients 0..N per second
-    series = compute_series(plan, [&line](const std::string& stage, double f) { line.update(stage, f); });
+    ProgressLine line("count");  // rate in coefficients 0..N per second
+    series = compute_series(plan, [&line, n_max](const std::string& stage, double f) {
+      line.update(stage, f, (long)(f * (double)(n_max + 1)));
+    });
   }
 
   std::ostream& out = sink.stream();
@@ -132,7 +134,7 @@ const Registration registration{CommandSpec{
     "count", 10, [](CLI::App& app) {
       auto opt = std::make_shared<CountOptions>();
       auto* cmd = app.add_subcommand("count", "exact counts c_t(n), sc_t(n), r_S(n) from the generating function");
-      cmd->add_option("family", opt->family, "family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S>")
+      cmd->add_option("family", opt->family, "family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S> (sums of S squares)")
           ->required();
       cmd->add_option("--to", opt->to, "all n = 0..N (with --ap: k = 0..K)");
       cmd->add_option("--at", opt->at, "the single value n = N");

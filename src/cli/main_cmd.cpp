@@ -27,12 +27,15 @@
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
 #include "core/provenance.hpp"
+#include "core/resource_guard.hpp"
 #include "family/family.hpp"
 #include "family/progression.hpp"
 #include "mainterm/main_term.hpp"
 #include "mainterm/main_term_batch.hpp"
 #include "quadratic/model.hpp"
 #include "series/eta_series.hpp"
+
+#include <flint/fmpz_factor.h>
 
 namespace circlet::cli {
 
@@ -42,11 +45,16 @@ namespace {
 constexpr long kCheapCountN = 200000;
 // Largest prime of the batched Euler product in tables (odd rank ≥ 5).
 constexpr ulong kTableMaxPrime = 500000;
+// X with at most this many decimal digits is factored in well under a second.
+constexpr long kEasyFactorDigits = 40;
+
+struct MainOptions;
+long digits_of(const MainOptions& o);
 
 struct MainOptions {
   std::string family;
   std::string to, at, ap;
-  long digits = 15;
+  std::string digits = "15";
   bool explain = false;
   bool json = false;
   bool no_count = false;
@@ -55,11 +63,15 @@ struct MainOptions {
   std::string output;
 };
 
+long digits_of(const MainOptions& o) { return parse_int_in_range("--digits", o.digits, 1, 1000); }
+
 slong bits_for_digits(long digits) { return (slong)(digits * 3.3219280948873623) + 20; }
 
 // The main term as text: the exact rational, or the ball (which reads back to a ball containing M(n)).
 std::string main_text(const MainTerm& m, long digits) {
   if (m.exact) return m.exact->str();
+  // Out of reach: an infinite ball, never "nan" (it reads back as a ball containing M(n)).
+  if (!arb_is_finite(m.ball.get())) return "[+/- inf]";
   return m.ball.str(digits + 2);
 }
 
@@ -73,6 +85,7 @@ std::string remainder_text(const Fmpz& count, const MainTerm& m, long digits, sl
   Arb r;
   arb_set_fmpz(r, count.get());
   arb_sub(r, r, m.ball, prec);
+  if (!arb_is_finite(r.get())) return "[+/- inf]";
   return r.str(digits + 2);
 }
 
@@ -235,10 +248,42 @@ bool needs_private_factoring(const QuadraticModel& model, const Fmpz& n) {
 
 void run_single_direct(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out);
 
+// The main term factors X = n + Δ (its numerator): trivial when, after trial
+// division by the primes below 2^16, what remains is 1, small, or a probable
+// prime; a large composite cofactor may take FLINT's factoring unbounded time.
+ResourceEstimate factoring_estimate(const QuadraticModel& model, const Fmpz& n) {
+  ResourceEstimate e;
+  const Fmpq X = model.X(n);
+  Fmpz c;
+  fmpz_mul(c.get(), fmpq_numref(X.get()), fmpq_denref(X.get()));
+  fmpz_abs(c.get(), c.get());
+  const long digits = static_cast<long>(fmpz_sizeinbase(c.get(), 10));
+  e.what = "the main term at an n whose X has " + std::to_string(digits) + " digits";
+  if (digits <= kEasyFactorDigits) return e;
+  fmpz_factor_t fac;
+  fmpz_factor_init(fac);
+  fmpz_factor_trial_range(fac, c.get(), 0, 6542);  // the 6542 primes below 2^16
+  for (slong i = 0; i < fac->num; ++i) {
+    Fmpz pe;
+    fmpz_pow_ui(pe.get(), fac->p + i, fac->exp[i]);
+    if (fmpz_divisible(c.get(), pe.get())) fmpz_divexact(c.get(), c.get(), pe.get());
+  }
+  fmpz_factor_clear(fac);
+  const long rest = fmpz_is_one(c.get()) ? 0 : static_cast<long>(fmpz_sizeinbase(c.get(), 10));
+  if (rest <= kEasyFactorDigits) return e;
+  // BPSW costs about a second at 5000 digits; beyond 20000 digits it is not tried.
+  if (rest <= 20000 && fmpz_is_probabprime(c.get())) return e;
+  e.seconds = -1;
+  e.reason = "X has a composite cofactor of " + std::to_string(rest) +
+             " digits without small prime factors, whose factorisation may not finish";
+  return e;
+}
+
+
 void run_single(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out) {
-  Fmpz n = Fmpz::from_str(opt.at);
-  if (fmpz_sgn(n.get()) < 0) throw UserError("--at must be a non-negative integer, got " + opt.at);
+  const Fmpz n = parse_nonnegative_fmpz("--at", opt.at);
   check_main_term_input(model, n);
+  require_resources(factoring_estimate(model, n));  // a refusal naming --allow-large
   if (!needs_private_factoring(model, n)) return run_single_direct(opt, family, model, out);
   if (stderr_is_terminal())
     std::cerr << "circlet main: factoring X (" << model.X(n).str().size() << " digits) in a private temporary "
@@ -274,8 +319,7 @@ void run_single(const MainOptions& opt, const Family& family, const QuadraticMod
 }
 
 void run_single_direct(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out) {
-  Fmpz n = Fmpz::from_str(opt.at);
-  if (fmpz_sgn(n.get()) < 0) throw UserError("--at must be a non-negative integer, got " + opt.at);
+  const Fmpz n = parse_nonnegative_fmpz("--at", opt.at);
   check_main_term_input(model, n);
   const bool cheap = !opt.no_count && fmpz_cmp_si(n.get(), kCheapCountN) <= 0;
   Fmpz count;
@@ -283,11 +327,11 @@ void run_single_direct(const MainOptions& opt, const Family& family, const Quadr
 
   MainTermOptions mo;
   mo.max_class_number_steps = opt.class_number_steps;
-  CertifiedMainTerm c = main_term_certified(model, n, opt.digits, 4096, mo);
+  CertifiedMainTerm c = main_term_certified(model, n, digits_of(opt), 4096, mo);
   const MainTerm& m = c.term;
   std::string status = m.exact ? "exact rational"
-                               : (c.certified ? "ball, " + std::to_string(opt.digits) + " digits certified"
-                                              : "ball: could not certify " + std::to_string(opt.digits) +
+                               : (c.certified ? "ball, " + std::to_string(digits_of(opt)) + " digits certified"
+                                              : "ball: could not certify " + std::to_string(digits_of(opt)) +
                                                     " digits (stopped at " + std::to_string(c.prec) +
                                                     " bits; " + m.parts.L_route + ")");
   if (opt.json) {
@@ -295,32 +339,32 @@ void run_single_direct(const MainOptions& opt, const Family& family, const Quadr
     j["provenance"] = Provenance::now(command_line(), c.prec).to_json();
     j["family"] = family.name();
     j["n"] = n.str();
-    j["main"] = main_text(m, opt.digits);
+    j["main"] = main_text(m, digits_of(opt));
     j["main_status"] = status;
     j["certified"] = c.certified;
     if (cheap) {
       j["count"] = count.str();
-      j["remainder"] = remainder_text(count, m, opt.digits, c.prec);
+      j["remainder"] = remainder_text(count, m, digits_of(opt), c.prec);
     }
-    if (opt.explain) j["parts"] = parts_json(m, opt.digits);
+    if (opt.explain) j["parts"] = parts_json(m, digits_of(opt));
     out << j.dump(2) << "\n";
     return;
   }
   out << "family      " << family.name() << " (" << family.description() << ")\n";
   out << "n           " << n.str() << "\n";
-  out << "main term   " << main_text(m, opt.digits) << "   (" << status << ")\n";
+  out << "main term   " << main_text(m, digits_of(opt)) << "   (" << status << ")\n";
   if (m.exact) {
     Arb b;
-    arb_set_fmpq(b, m.exact->get(), bits_for_digits(opt.digits));
-    out << "            ~ " << b.str(opt.digits) << "\n";
+    arb_set_fmpq(b, m.exact->get(), bits_for_digits(digits_of(opt)));
+    out << "            ~ " << b.str(digits_of(opt)) << "\n";
   }
   if (cheap) {
     out << "count       " << count.str() << "   (exact, series engine)\n";
-    out << "remainder   " << remainder_text(count, m, opt.digits, c.prec) << "   (count - main term)\n";
+    out << "remainder   " << remainder_text(count, m, digits_of(opt), c.prec) << "   (count - main term)\n";
   } else {
     out << "count       not computed (n > " << kCheapCountN << " or --no-count)\n";
   }
-  if (opt.explain) print_explain(out, m, opt.digits);
+  if (opt.explain) print_explain(out, m, digits_of(opt));
 }
 
 void run_table(const MainOptions& opt, const Family& family, const QuadraticModel& model, std::ostream& out,
@@ -337,13 +381,13 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
     check_resources(plan);
     series = compute_series(plan);
   }
-  const slong prec = bits_for_digits(opt.digits);
+  const slong prec = bits_for_digits(digits_of(opt));
   MainTermOptions mo;
   mo.with_parts = false;
   mo.max_class_number_steps = opt.class_number_steps;
   // Exact rows (even rank, weights 3/2 and 5/2) on two threads; odd rank ≥ 7 as balls
   // from one pass over the primes p ≤ kTableMaxPrime (main_term_batch.hpp).
-  const slong bits = (slong)(opt.digits * 3.3219280948873623) + 2;
+  const slong bits = (slong)(digits_of(opt) * 3.3219280948873623) + 2;
   const std::vector<TableMainTerm> table =
       main_term_table(model, has_ap ? sel.prog.B : 0, has_ap ? sel.prog.A : 1, rows, bits, kTableMaxPrime, prec, mo);
   const Provenance prov = Provenance::now(command_line(), prec);
@@ -373,12 +417,12 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
       MainTerm m;
       m.exact = t.exact;
       m.ball = t.ball;
-      if (!m.exact && arb_rel_accuracy_bits(m.ball) < (slong)(opt.digits * 3.32)) ++short_rows;
-      main_s = main_text(m, opt.digits);
+      if (!m.exact && arb_rel_accuracy_bits(m.ball) < (slong)(digits_of(opt) * 3.32)) ++short_rows;
+      main_s = main_text(m, digits_of(opt));
       if (with_count) {
         Fmpz cnt;
         fmpz_set(cnt.get(), series.at(n));
-        rem_s = remainder_text(cnt, m, opt.digits, prec);
+        rem_s = remainder_text(cnt, m, digits_of(opt), prec);
       }
     }
     if (with_count) {
@@ -407,7 +451,7 @@ void run_table(const MainOptions& opt, const Family& family, const QuadraticMode
     }
   }
   if (short_rows > 0)
-    std::cerr << "circlet main: note: " << short_rows << " rows have fewer than " << opt.digits
+    std::cerr << "circlet main: note: " << short_rows << " rows have fewer than " << digits_of(opt)
               << " certified digits (their balls are still rigorous; for odd rank >= 7 the Euler product of large tables "
                  "stops at p <= "
               << kTableMaxPrime << "; main --at N certifies more)\n";
@@ -430,7 +474,7 @@ void run_main(const MainOptions& opt) {
   if (has_to && has_at) throw UserError("give either --to N or --at N, not both");
   if (has_ap && !has_to) throw UserError("--ap A,B needs --to K (the progression is A*k+B for k = 0..K)");
   if (!has_to && !has_at) throw UserError("give --at N, --to N or --ap A,B --to K");
-  if (opt.digits < 1 || opt.digits > 1000) throw UserError("--digits must be between 1 and 1000");
+  digits_of(opt);  // --digits 1..1000, by the one integer parser
   if (!(opt.factor_timeout > 0)) throw UserError("--factor-timeout must be a positive number of seconds");
   if (opt.explain && !has_at) throw UserError("--explain is for a single value (--at N)");
   const QuadraticModel model = quadratic_model(family);
@@ -448,11 +492,13 @@ const Registration registration{CommandSpec{
     "main", 20, [](CLI::App& app) {
       auto opt = std::make_shared<MainOptions>();
       auto* cmd = app.add_subcommand("main", "circle-method main term M(n): exact rational or certified ball, with count and remainder");
-      cmd->add_option("family", opt->family, "family: c<T>, sc<T>, sq<S>")->required();
+      cmd->add_option("family", opt->family,
+                      "family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S> (sums of S squares)")
+          ->required();
       cmd->add_option("--at", opt->at, "a single n (any size)");
       cmd->add_option("--to", opt->to, "table of n = 0..N (with --ap: k = 0..K)");
       cmd->add_option("--ap", opt->ap, "progression A,B: rows n = A*k+B, k = 0..K (needs --to K)");
-      cmd->add_option("--digits", opt->digits, "significant digits to certify for balls (default 15)");
+      cmd->add_option("--digits", opt->digits, "significant digits to certify for balls, 1..1000 (default 15)");
       cmd->add_flag("--explain", opt->explain, "print the parts: X, sigma_inf, character, L-value, special primes");
       cmd->add_flag("--no-count", opt->no_count, "do not compute exact counts");
       cmd->add_option("--factor-timeout", opt->factor_timeout,

@@ -3,6 +3,7 @@
 // src/mainterm/), normalised by X^{(w−1)/2} and X^{w/2}, with summary
 // statistics, an empirical growth fit and, where known, a certified bound.
 #include <climits>
+#include <cmath>
 #include <iostream>
 #include <memory>
 #include <sstream>
@@ -13,10 +14,11 @@
 #include "arcs/certified_bound.hpp"
 #include "arcs/remainder.hpp"
 #include "cli/command.hpp"
-#include "cli/progress_line.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
+#include "core/progress_line.hpp"
 #include "core/provenance.hpp"
+#include "core/resource_guard.hpp"
 #include "family/family.hpp"
 #include "family/progression.hpp"
 #include "mainterm/main_term.hpp"
@@ -34,8 +36,7 @@ constexpr ulong kTableMaxPrime = 500000;
 struct RemainderOptions {
   std::string family;
   std::string to, ap;
-  long prec = 128;
-  long digits = 12;
+  std::string prec = "128", digits = "12";
   bool json = false;
   bool quiet = false;
   std::string output;
@@ -58,7 +59,8 @@ std::string fixed(double x, int decimals) {
 
 void run_remainder(const RemainderOptions& opt) {
   const Family family = Family::parse(opt.family);
-  if (opt.prec < 32 || opt.prec > 100000) throw UserError("--prec must be between 32 and 100000 bits");
+  const slong prec = parse_int_in_range("--prec", opt.prec, 32, 100000);
+  const slong dg = parse_int_in_range("--digits", opt.digits, 1, 1000);
   const QuadraticModel model = quadratic_model(family);
   if (model.rank < 2)
     throw UserError("family " + family.name() + " has rank " + std::to_string(model.rank) + ": no main term");
@@ -81,28 +83,42 @@ void run_remainder(const RemainderOptions& opt) {
   }
   if (ns.empty()) throw UserError("no n in the range has X = n + Delta > 0");
 
+  {
+    // Cost model (measured, 2 cores): the remainder table's per-run cost grows like r^4
+    // in the rank (0.2 s at c200, 2.3 s at c400; r^4 errs on the safe side) and like prec^1.6 per row.
+    ResourceEstimate e;
+    e.what = "remainder for " + family.name() + " (rank " + std::to_string(model.rank) + ") with " +
+             std::to_string(ns.size()) + " rows";
+    const double scale = std::max(1.0, double(prec) / 128.0);
+    e.seconds = 2.3 * std::pow(double(model.rank) / 400.0, 4.0) * scale +
+                double(ns.size()) * 2e-4 * std::pow(scale, 1.6);
+    e.bytes = double(ns.size()) * 700.0;
+    e.reason = "time grows like rank^4 and rows x prec^1.6";
+    require_resources(e);
+  }
   SeriesPlan plan = plan_family_series(family, n_max);
   check_resources(plan);
   OutputSink sink(opt.output);
   IntegerSeries series;
   {
-    ProgressLine line("remainder", (double)(n_max + 1), "coeff");
-    series = compute_series(plan, [&line](const std::string& stage, double f) { line.update(stage, f); });
+    ProgressLine line("remainder");
+    series = compute_series(plan, [&line, n_max](const std::string& stage, double f) {
+      line.update(stage, f, (long)(f * (double)(n_max + 1)));
+    });
   }
   std::vector<Fmpz> counts;
   counts.reserve(ns.size());
   for (const auto& n : ns) counts.push_back(series.value(fmpz_get_si(n.get())));
 
-  const slong prec = opt.prec;
   // All main terms at once (main_term_batch.hpp: exact rows on two threads, one
   // pass over the primes for odd rank ≥ 7, truncated for the printed --digits):
   // linear in the number of rows.
   const long first = has_ap ? sel.prog.B : 0, step = has_ap ? sel.prog.A : 1;
   std::vector<TableMainTerm> mt;
   {
-    ProgressLine line("remainder", (double)(K + 1), "rows");
-    mt = main_term_table(model, first, step, K + 1, (slong)(opt.digits * 3.3219280948873623) + 10, kTableMaxPrime,
-                         prec, {}, [&line](double f) { line.update("main terms", f); });
+    ProgressLine line("remainder");
+    mt = main_term_table(model, first, step, K + 1, (slong)(dg * 3.3219280948873623) + 10, kTableMaxPrime,
+                         prec, {}, [&line, K](double f) { line.update("main terms", f, (long)(f * (double)(K + 1))); });
   }
   auto M = [&](const Fmpz& n) {
     const TableMainTerm& t = mt[(fmpz_get_si(n.get()) - first) / step];
@@ -115,7 +131,6 @@ void run_remainder(const RemainderOptions& opt) {
   const RemainderTable table = remainder_table(model, ns, counts, M, prec);
   const RemainderSummary& s = table.summary;
   auto cert = certified_remainder_bound(family);
-  const slong dg = opt.digits;
 
   nlohmann::json summary;
   summary["rows"] = s.rows;
@@ -212,7 +227,7 @@ const Registration registration{CommandSpec{
       auto opt = std::make_shared<RemainderOptions>();
       auto* cmd = app.add_subcommand("remainder",
                                      "remainder E(n) = count - main term, normalised, with summary and growth fit");
-      cmd->add_option("family", opt->family, "family: c<T>, sc<T>, sq<S>")->required();
+      cmd->add_option("family", opt->family, "family: c<T> (t-cores), sc<T> (self-conjugate t-cores), sq<S> (sums of S squares)")->required();
       cmd->add_option("--to", opt->to, "all n = 0..N (with --ap: k = 0..K)");
       cmd->add_option("--ap", opt->ap, "progression A,B: rows n = A*k+B for k = 0..K (needs --to K)");
       cmd->add_option("--prec", opt->prec, "working precision in bits (default 128)");

@@ -89,7 +89,7 @@ const Registration scan_registration{CommandSpec{
     "scan", 62, [](CLI::App& app) {
       auto o = std::make_shared<ScanCliOptions>();
       auto* cmd = app.add_subcommand("scan", "verdicts for c_t vs sc_{2t-1} on all progression pairs with A, A2 <= M");
-      cmd->add_option("--t", o->t, "range of t, e.g. 6..12 (t <= 5: exact comparisons instead of certificates)");
+      cmd->add_option("--t", o->t, "range of t (default 6..12; t <= 5: exact comparisons instead of certificates)");
       cmd->add_option("--modulus", o->modulus, "largest A and A2")->required();
       cmd->add_option("--shard", o->shard, "i/k: only jobs with index = i mod k (default 0/1)");
       cmd->add_flag("--verify", o->verify, "re-check every certificate independently (counting mod p^j, other precision)");

@@ -4,10 +4,13 @@
 #include <map>
 
 #include "core/error.hpp"
+#include "core/parse_int.hpp"
 
 namespace circlet {
 
 Family Family::parse(const std::string& name) {
+  const std::string expected =
+      "expected c<T> (t-cores), sc<T> (self-conjugate t-cores) or sq<S> (sums of S squares), e.g. c7, sc13, sq5";
   FamilyKind kind;
   std::string digits;
   if (name.rfind("sc", 0) == 0) {
@@ -20,12 +23,19 @@ Family Family::parse(const std::string& name) {
     kind = FamilyKind::Core;
     digits = name.substr(1);
   } else {
-    throw UserError("unknown family '" + name + "' (expected c<T>, sc<T> or sq<S>, e.g. c7, sc13, sq5)");
+    throw UserError("unknown family '" + name + "' (" + expected + ")");
   }
-  if (digits.empty() || digits.size() > 9 ||
-      !std::all_of(digits.begin(), digits.end(), [](char c) { return c >= '0' && c <= '9'; }))
-    throw UserError("family '" + name + "': '" + digits + "' is not a positive integer");
-  long t = std::stol(digits);
+  // A letter right after the prefix ("core7", "cx"): not a family name at all.
+  if (!digits.empty() && ((digits[0] >= 'a' && digits[0] <= 'z') || (digits[0] >= 'A' && digits[0] <= 'Z')))
+    throw UserError("unknown family '" + name + "' (" + expected + ")");
+  if (!is_decimal_digits(digits))
+    throw UserError("family '" + name + "': " + (digits.empty() ? "T is missing, '' " : "'" + digits + "' ") +
+                    "is not a positive integer (" + expected + ")");
+  size_t first = digits.find_first_not_of('0');
+  const std::string sig = first == std::string::npos ? "0" : digits.substr(first);
+  if (sig.size() > 9)
+    throw UserError("family '" + name + "': T = " + digits + " is out of range 1.." + std::to_string(kMaxT));
+  const long t = std::stol(sig);  // at most 9 decimal digits: fits
   if (t < 1 || t > kMaxT)
     throw UserError("family '" + name + "': T = " + digits + " is out of range 1.." + std::to_string(kMaxT));
   return Family{kind, static_cast<int>(t)};

@@ -8,35 +8,14 @@
 
 namespace circlet {
 
-namespace {
-bool all_digits(const std::string& s) {
-  if (s.empty()) return false;
-  for (char c : s)
-    if (c < '0' || c > '9') return false;
-  return true;
-}
-}  // namespace
-
-long parse_nonnegative(const std::string& what, const std::string& text, long max) {
-  if (!text.empty() && text[0] == '-' && all_digits(text.substr(1)))
-    throw UserError(what + " must be non-negative, got " + text);
-  if (!all_digits(text)) throw UserError(what + " expects a non-negative integer, got '" + text + "'");
-  errno = 0;
-  unsigned long long v = std::strtoull(text.c_str(), nullptr, 10);
-  if (errno == ERANGE || v > static_cast<unsigned long long>(max))
-    throw UserError(what + " = " + text + " is too large (at most " + std::to_string(max) + ")");
-  return static_cast<long>(v);
-}
-
 Progression Progression::parse(const std::string& text) {
   auto comma = text.find(',');
   if (comma == std::string::npos || text.find(',', comma + 1) != std::string::npos)
     throw UserError("progression '" + text + "' must be A,B (n -> A*n+B), e.g. 5,4");
   std::string a = text.substr(0, comma), b = text.substr(comma + 1);
-  if (a == "0" || (all_digits(a) && std::strtoull(a.c_str(), nullptr, 10) == 0))
-    throw UserError("progression '" + text + "': A must be at least 1");
   Progression p;
   p.A = parse_nonnegative("progression A", a, LONG_MAX);
+  if (p.A == 0) throw UserError("progression '" + text + "': A must be at least 1");
   p.B = parse_nonnegative("progression B", b, LONG_MAX);
   return p;
 }

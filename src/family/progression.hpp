@@ -3,6 +3,8 @@
 // and the parsing of the non-negative integers the user types (N, K, digits).
 #include <string>
 
+#include "core/parse_int.hpp"  // parse_nonnegative: the one integer parser
+
 namespace circlet {
 
 struct Progression {
@@ -33,8 +35,5 @@ struct RowSelection {
   long n_of(long i) const { return progression ? prog.A * i + prog.B : first_n + i; }
 };
 
-/// Parses a non-negative decimal integer ≤ max for the option `what` (e.g. "--to");
-/// UserError naming the option on empty, signed, non-numeric or too-large text.
-long parse_nonnegative(const std::string& what, const std::string& text, long max);
 
 }  // namespace circlet

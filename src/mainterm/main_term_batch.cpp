@@ -105,8 +105,16 @@ std::vector<Arb> main_term_batch(const QuadraticModel& model, long first, long s
       arb_mul(t, t, x, prec + 20);
       arb_mul(sigma[i].get(), t, sigma_const, prec + 20);
     }
+    if (fmpz_bits(m.parts.discriminant.get()) >= 62) {
+      // The batched pass keeps d0(n) in 64 bits; beyond that the row takes the
+      // single-value route (main_term with its own L-value), which has no such limit.
+      MainTermOptions single;
+      single.with_parts = false;
+      out[i] = main_term(model, n, prec, single).ball;
+      valid[i] = 0;
+      continue;
+    }
     corr[i] = std::move(m.parts.correction);
-    CIRCLET_ASSERT(fmpz_bits(m.parts.discriminant.get()) < 62, "main_term_batch: discriminant too large");
     d0[i] = fmpz_get_si(m.parts.discriminant.get());
   }
   if (!batched_l) return out;

@@ -25,7 +25,8 @@
 namespace circlet {
 
 /// Balls containing M(first + step·i) for i = 0..count−1 (first ≥ 0, step ≥ 1).
-/// Rows with X ≤ 0 get an indeterminate ball. P is the Euler-product bound for
+/// Rows with X ≤ 0 get an indeterminate ball; rows whose discriminant d0(n) does
+/// not fit in 62 bits are computed by the single-value main_term. P is the Euler-product bound for
 /// odd rank (k ≥ 2); `prec` the working precision of the per-row balls.
 std::vector<Arb> main_term_batch(const QuadraticModel& model, long first, long step, long count, ulong P,
                                  slong prec);

@@ -10,10 +10,14 @@ namespace circlet {
 /// res = sqrt(x) for a rational x ≥ 0.
 void arb_sqrt_fmpq(arb_t res, const Fmpq& x, slong prec);
 
-/// res = y^{(r−2)/2} for a rational y > 0.
+/// res = y^{(r−2)/2} for a rational y > 0 (any rank r ≥ 0).
 void weight_power(arb_t res, const Fmpq& y, int rank, slong prec);
 
+/// The least n ≥ 0 with X(n) = a·n + b > 0.
+long first_positive(const AffineX& x);
+
 /// Fills c.sigma_square, c.sigma, c.power_base, c.power_limit, c.n0, c.power_from_n0.
+/// c.n0 is the larger of n0 and the first n at which X_F and X_G are both positive.
 void sigma_and_power(Certificate& c, const ProgressionPair& pair, long n0, slong prec);
 
 /// limit = sigma·power_limit·pinned·tail; from_n0 = sigma·power_from_n0·pinned·tail.

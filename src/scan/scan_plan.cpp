@@ -6,6 +6,11 @@ namespace circlet {
 
 void ScanSpec::parse_t_range(const std::string& text, int* lo, int* hi) {
   auto dots = text.find("..");
+  const auto dash = text.find('-');
+  if (dots == std::string::npos && dash != std::string::npos && dash > 0 && is_decimal_digits(text.substr(0, dash)) &&
+      is_decimal_digits(text.substr(dash + 1)))
+    throw UserError("--t expects a range T1..T2, got '" + text + "' (did you mean " + text.substr(0, dash) + ".." +
+                    text.substr(dash + 1) + "?)");
   long a, b;
   if (dots == std::string::npos) {
     a = b = parse_nonnegative("--t", text, 1000);

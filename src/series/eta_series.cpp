@@ -13,6 +13,8 @@
 #include <thread>
 
 #include "core/error.hpp"
+#include "core/library_errors.hpp"
+#include "core/memory_limit.hpp"
 #include "series/crt.hpp"
 
 namespace circlet {
@@ -47,7 +49,11 @@ void parallel_for(long n, int threads, const std::function<void(long)>& fn) {
     }
   };
   std::vector<std::thread> helpers;
-  for (int t = 1; t < threads && t < n; ++t) helpers.emplace_back(work);
+  for (int t = 1; t < threads && t < n; ++t)
+    helpers.emplace_back([&work] {
+      install_library_error_handlers();  // NTL's handler is per thread
+      work();
+    });
   work();
   for (auto& h : helpers) h.join();
   if (failure) std::rethrow_exception(failure);
@@ -350,28 +356,13 @@ SeriesPlan plan_eta_series(const EtaQuotient& quotient, long N, int threads) {
   return make_plan(quotient, N, threads, eta_quotient_coefficient_bound(quotient, N, 64));
 }
 
-double available_memory_bytes() {
-  if (const char* env = std::getenv("CIRCLET_MEMORY_AVAILABLE")) {
-    char* end = nullptr;
-    double v = std::strtod(env, &end);
-    if (end != env && v >= 0) return v;
-  }
-  std::ifstream in("/proc/meminfo");
-  std::string key;
-  double kb;
-  std::string unit;
-  while (in >> key >> kb) {
-    std::getline(in, unit);
-    if (key == "MemAvailable:") return kb * 1024.0;
-  }
-  return -1;
-}
+double available_memory_bytes() { return memory_budget().bytes; }
 
 void check_resources(const SeriesPlan& plan) {
-  const double avail = available_memory_bytes();
-  if (avail >= 0 && plan.memory_bytes > avail)
+  const MemoryBudget budget = memory_budget();
+  if (budget.bytes >= 0 && plan.memory_bytes > budget.bytes)
     throw UserError("N = " + std::to_string(plan.N) + " needs about " + gigabytes(plan.memory_bytes) +
-                    " of memory, more than the " + gigabytes(avail) + " available");
+                    " of memory, more than the " + gigabytes(budget.bytes) + " available (" + budget.source + ")");
   if (plan.N > kMaxSeriesN)
     throw UserError("N = " + std::to_string(plan.N) + " is beyond the series engine's limit " +
                     std::to_string(kMaxSeriesN) + " (NTL FFT length 2^25)");
@@ -432,7 +423,11 @@ IntegerSeries compute_series(const SeriesPlan& plan, const SeriesProgress& progr
     worker();
   } else {
     std::vector<std::thread> pool;
-    for (size_t t = 0; t < nthreads; ++t) pool.emplace_back(worker);
+    for (size_t t = 0; t < nthreads; ++t)
+      pool.emplace_back([&worker] {
+        install_library_error_handlers();  // NTL's handler is per thread
+        worker();
+      });
     for (auto& th : pool) th.join();
   }
   if (failure) std::rethrow_exception(failure);

@@ -53,9 +53,9 @@ SeriesPlan plan_family_series(const Family& family, long N, int threads = 2);
 /// Plans an arbitrary eta quotient to N (general majorant bound, signed CRT).
 SeriesPlan plan_eta_series(const EtaQuotient& quotient, long N, int threads = 2);
 
-/// Bytes of memory available to a new run: MemAvailable from /proc/meminfo, or
-/// the value of the environment variable CIRCLET_MEMORY_AVAILABLE (bytes) when
-/// set (for tests of the refusal path). Returns a negative number if unknown.
+/// Bytes of memory available to a new run: memory_budget() of core/memory_limit.hpp
+/// (MemAvailable, cgroup limit, RLIMIT_AS; CIRCLET_MEMORY_AVAILABLE overrides).
+/// Returns a negative number if unknown.
 double available_memory_bytes();
 
 /// Throws UserError stating the estimate when the plan would not fit in the
