@@ -50,7 +50,7 @@ TEST_CASE("every table kind loads with the documented pandas call and matches do
   REQUIRE(!tmp.path.empty());
   const std::string& d = tmp.path;
   const std::string c = CIRCLET_BINARY;
-  // Each kind in its variants (--ap, --fast, --gauss, exact and ball main terms, an undefined
+  // Each kind in its variants (--ap, --gauss, exact and ball main terms, an undefined
   // ratio, an infinite tail bound), half through -o and half through standard output.
   struct Made {
     const char* kind;
@@ -62,7 +62,6 @@ TEST_CASE("every table kind loads with the documented pandas call and matches do
       {"count", "count sc13 --ap 2,1 --to 10", "count_ap.csv", false},
       {"main", "main c7 --to 10", "main.csv", true},
       {"main", "main c6 --ap 2,1 --to 10", "main_ap.csv", false},
-      {"main", "main c6 --to 5 --fast", "main_fast.csv", true},
       {"arcs", "arcs c9 --at 100 --upto 5", "arcs.csv", true},
       {"arcs", "arcs c6 --at 50 --upto 4 --gauss", "arcs_gauss.csv", false},
       {"arcs", "arcs sc7 --at 100 --upto 3", "arcs_inf.csv", true},

@@ -85,13 +85,14 @@ void run_remainder(const RemainderOptions& opt) {
 
   {
     // Cost model (measured, 2 cores): the remainder table's per-run cost grows like r^4
-    // in the rank (0.2 s at c200, 2.3 s at c400; r^4 errs on the safe side) and like prec^1.6 per row.
+    // in the rank (0.2 s at c200, 2.3 s at c400; r^4 errs on the safe side) and like prec^1.6
+    // per row; with the shared main-term table a row costs about 1e-5 s (c9, 10^5 rows: 1.2 s CPU).
     ResourceEstimate e;
     e.what = "remainder for " + family.name() + " (rank " + std::to_string(model.rank) + ") with " +
              std::to_string(ns.size()) + " rows";
     const double scale = std::max(1.0, double(prec) / 128.0);
     e.seconds = 2.3 * std::pow(double(model.rank) / 400.0, 4.0) * scale +
-                double(ns.size()) * 2e-4 * std::pow(scale, 1.6);
+                double(ns.size()) * 2e-5 * std::pow(scale, 1.6);
     e.bytes = double(ns.size()) * 700.0;
     e.reason = "time grows like rank^4 and rows x prec^1.6";
     require_resources(e);
