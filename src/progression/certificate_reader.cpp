@@ -122,13 +122,18 @@ const json& arr(const json& j, const std::string& ptr, size_t lo, size_t hi) {
 }
 
 unsigned long long integer(const json& j, const std::string& ptr, unsigned long long lo, unsigned long long hi) {
+  const std::string range = " is out of range " + std::to_string(lo) + ".." + std::to_string(hi);
+  if (!j.is_number_integer()) bad(ptr, "expected a non-negative integer");  // (floats are refused when parsing)
+  unsigned long long v;
   if (j.is_number_unsigned()) {
-    unsigned long long v = j.get<unsigned long long>();
-    if (v < lo || v > hi) bad(ptr, std::to_string(v) + " is out of range " + std::to_string(lo) + ".." + std::to_string(hi));
-    return v;
+    v = j.get<unsigned long long>();
+  } else {
+    long long s = j.get<long long>();
+    if (s < 0) bad(ptr, std::to_string(s) + " is negative (out of range " + std::to_string(lo) + ".." + std::to_string(hi) + ")");
+    v = static_cast<unsigned long long>(s);
   }
-  if (j.is_number_integer()) bad(ptr, j.dump() + " is negative (out of range " + std::to_string(lo) + ".." + std::to_string(hi) + ")");
-  bad(ptr, "expected a non-negative integer");
+  if (v < lo || v > hi) bad(ptr, std::to_string(v) + range);
+  return v;
 }
 
 const std::string& str(const json& j, const std::string& ptr) {

@@ -24,10 +24,15 @@ namespace {
 using nlohmann::json;
 
 constexpr slong kTightBits = 40;
-// Counting N_j modulo q = p^j costs about vars·q² elementary steps (measured:
-// c100 modulo 97² ≈ 7 s for 9·10⁹ steps); refuse tables beyond these.
-constexpr double kMaxTableCost = 2e9;
-constexpr double kMaxTotalCost = 6e9;
+// Counting N_j modulo q = p^j: measured (Release, one core) about vars·q/10^5 s at
+// odd p (c9 modulo 17^4: 1.4 s, c50 modulo 97^2: 3.6 s) and (vars/2)·q²/(3·10^8) s
+// at p = 2 for c_t (2×2 blocks; c9 modulo 2^14: 5 s). Each table's time is
+// estimated before it is counted as vars·q/10^5 s (and at least vars·q²/(4·10^8) s at p = 2 for c_t).
+double estimated_count_seconds(const QuadraticModel& m, ulong p, ulong q) {
+  const double v = static_cast<double>(m.vars), dq = static_cast<double>(q);
+  const double linear = v * dq / 1e5;
+  return (p == 2 && m.sum_zero) ? std::max(linear, v * dq * dq / 4e8) : linear;
+}
 constexpr ulong kMaxCountModulus = 1UL << 22;
 
 /// Thrown for a check beyond the stated cost limits: bad input (exit 2), not a false claim.
@@ -37,7 +42,8 @@ struct CostLimit : UserError {
 
 struct Ctx {
   VerifyReport report;
-  double cost = 0;
+  VerifyLimits limits;
+  double cost = 0;  // estimated seconds of counting so far
   std::map<std::tuple<int, int, ulong, int>, std::vector<Fmpz>> tables;
   void fail(const std::string& s) { report.failures.push_back(s); }
   void ok(const std::string& s) { report.checked.push_back(s); }
@@ -62,13 +68,15 @@ Fmpq counted_density(Ctx& ctx, const QuadraticModel& m, const Fmpz& N, ulong p) 
   auto key = std::make_tuple(static_cast<int>(m.family.kind), m.family.t, p, j);
   auto it = ctx.tables.find(key);
   if (it == ctx.tables.end()) {
-    const double cost = static_cast<double>(m.vars) * static_cast<double>(q) * static_cast<double>(q);
-    if (cost > kMaxTableCost || ctx.cost + cost > kMaxTotalCost)
-      throw CostLimit("counting beta_" + std::to_string(p) + " of " + m.family.name() + " modulo " + std::to_string(q) +
-                      " (estimated " + std::to_string(static_cast<long long>(cost)) + " steps; " +
-                      std::to_string(static_cast<long long>(ctx.cost)) + " already spent) exceeds the limits of verify (" +
-                      std::to_string(static_cast<long long>(kMaxTableCost)) + " per table, " +
-                      std::to_string(static_cast<long long>(kMaxTotalCost)) + " in all)");
+    const double cost = estimated_count_seconds(m, p, q);
+    if (ctx.limits.max_count_seconds > 0 && ctx.cost + cost > ctx.limits.max_count_seconds) {
+      char buf[64];
+      std::snprintf(buf, sizeof buf, "%.3g", ctx.cost + cost);
+      throw CostLimit("checking the local factors needs counting beta_" + std::to_string(p) + " of " + m.family.name() +
+                      " modulo " + std::to_string(q) + ", an estimated " + buf + " s of counting in all, more than the limit of " +
+                      std::to_string(static_cast<long>(ctx.limits.max_count_seconds)) +
+                      " s (circlet verify --no-time-limit lifts it)");
+    }
     ctx.cost += cost;
     it = ctx.tables.emplace(key, local_value_counts(m, p, j)).first;
   }
@@ -488,13 +496,14 @@ void verify_constant(Ctx& ctx, const json& j, const ProgressionPair& pair, slong
 
 }  // namespace
 
-VerifyReport verify_certificate(const json& j) {
+VerifyReport verify_certificate(const json& j, const VerifyLimits& limits) {
   check_certificate_schema(j);  // UserError naming the field
   const json& prov = j.at("provenance");
   if (prov.at("version") != kVersion)
     throw UserError("certificate written by circlet version " + prov.at("version").get<std::string>() +
                     ", this is version " + kVersion + "; re-run certify with this version");
   Ctx ctx;
+  ctx.limits = limits;
   const std::string digest = certificate_digest(j);
   if (j.at("digest") != digest)
     ctx.fail("/digest: " + j.at("digest").get<std::string>() + " is not the digest of the content, " + digest +
@@ -551,8 +560,8 @@ VerifyReport verify_certificate(const json& j) {
   return ctx.report;
 }
 
-VerifyReport verify_certificate_text(const std::string& text) {
-  return verify_certificate(parse_certificate_text(text));
+VerifyReport verify_certificate_text(const std::string& text, const VerifyLimits& limits) {
+  return verify_certificate(parse_certificate_text(text), limits);
 }
 
 }  // namespace circlet

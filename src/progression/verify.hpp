@@ -31,13 +31,18 @@ struct VerifyReport {
   bool ok() const { return failures.empty(); }
 };
 
+struct VerifyLimits {
+  /// Estimated seconds of counting modulo p^j allowed before it starts (0: no limit).
+  double max_count_seconds = 6.0;
+};
+
 /// A malformed certificate (docs/certificate-format.md §1: schema, limits,
 /// another program version) or one whose checks would exceed the stated cost
 /// limits throws UserError naming the field. A well-formed certificate whose
 /// digest or claims do not hold gives a report with failures.
-VerifyReport verify_certificate(const nlohmann::json& cert);
+VerifyReport verify_certificate(const nlohmann::json& cert, const VerifyLimits& limits = {});
 
 /// The text of a certificate file, read strictly (parse_certificate_text) and verified.
-VerifyReport verify_certificate_text(const std::string& text);
+VerifyReport verify_certificate_text(const std::string& text, const VerifyLimits& limits = {});
 
 }  // namespace circlet
