@@ -223,6 +223,16 @@ ulong exponent(const json& j, const std::string& ptr, ulong p) {
   return e;
 }
 
+// "r/2" for odd r, "r/2" as an integer for even r: [1-9][0-9]* or an odd [1-9][0-9]* followed by "/2".
+void weight_text(const json& j, const std::string& ptr) {
+  const std::string& s = str(j, ptr);
+  const bool half = s.size() > 2 && s.compare(s.size() - 2, 2, "/2") == 0;
+  const std::string num = half ? s.substr(0, s.size() - 2) : s;
+  bool ok = num.size() <= 6 && is_nat(num) && num != "0";
+  if (ok && half) ok = (num.back() - '0') % 2 == 1;
+  if (!ok) bad(ptr, "'" + s.substr(0, 40) + "' is not a weight (an integer, or an odd integer over 2)");
+}
+
 int family_rank(const json& j, const std::string& ptr) {
   const std::string& s = str(j, ptr);
   Family f = [&]() {
@@ -278,19 +288,18 @@ void nonconvergent(const json& j, long prec, ulong Q_max) {
   const json& pf = j["power_factor"];
   keys(pf, "/power_factor", {"base", "exponent", "limit", "n0", "for_n_ge_n0"});
   rat(pf["base"], "/power_factor/base");
-  str(pf["exponent"], "/power_factor/exponent");
+  weight_text(pf["exponent"], "/power_factor/exponent");
   exact(pf["n0"], "/power_factor/n0", std::to_string(kCertN0));
   ball(pf["limit"], "/power_factor/limit", prec);
   ball(pf["for_n_ge_n0"], "/power_factor/for_n_ge_n0", prec);
   const json& t = j["tail"];
   if (!t.is_object()) bad("/tail", "expected an object");
-  const std::string route = t.contains("route") ? str(t["route"], "/tail/route") : std::string();
+  if (!t.contains("route")) bad("/tail", "missing field 'route'");
+  const std::string route = str(t["route"], "/tail/route");
   if (route == "proportional")
     keys(t, "/tail", {"route", "explicit_primes_up_to", "log_bound", "interval", "lambda", "discriminant_product"});
   else if (route == "bound")
     keys(t, "/tail", {"route", "explicit_primes_up_to", "log_bound", "interval"});
-  else if (route.empty())
-    bad("/tail", "missing field 'route'");
   else
     bad("/tail/route", "must be \"bound\" or \"proportional\"");
   integer(t["explicit_primes_up_to"], "/tail/explicit_primes_up_to", kCertTailPrimes, kCertTailPrimes);
@@ -376,7 +385,11 @@ void check_certificate_schema(const json& j) {
   } else if (v == "CONSTANT") {
     want.push_back("constant_route");
     want.push_back("constant");
-    if (j.contains("constant_route") && j["constant_route"] == "proportional")
+    if (!j.contains("constant_route")) bad("", "missing field 'constant_route'");
+    const std::string& route = str(j["constant_route"], "/constant_route");
+    if (route != "identical" && route != "proportional")
+      bad("/constant_route", "must be \"identical\" or \"proportional\"");
+    if (route == "proportional")
       for (const char* k : {"lambda", "discriminant_product", "finite_primes"}) want.push_back(k);
   } else if (v != "UNDECIDED") {
     bad("/verdict", "must be NON-CONVERGENT, CONSTANT or UNDECIDED");
@@ -398,7 +411,7 @@ void check_certificate_schema(const json& j) {
   if (rF != rG) bad("/G", "has rank " + std::to_string(rG) + " but F has rank " + std::to_string(rF) + " (different weights)");
   progression(j["ap"], "/ap");
   progression(j["ap2"], "/ap2");
-  str(j["weight"], "/weight");
+  weight_text(j["weight"], "/weight");
   const long prec = static_cast<long>(integer(j["precision_bits"], "/precision_bits", 64, kCertMaxPrecision));
   const ulong Q_max = integer(j["Q_max"], "/Q_max", 3, kCertMaxQmax);
   const json& th = arr(j["theorems"], "/theorems", 0, theorem_catalogue().size());

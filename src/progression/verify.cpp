@@ -270,6 +270,11 @@ void verify_nonconvergent(Ctx& ctx, const json& j, const ProgressionPair& pair, 
 
   const json& classes = j.at("classes");
   const ulong dp = int_field(j, "distinguishing_prime");
+  for (int k = 0; k < 2; ++k)
+    if (classes[k].at("local_factors").size() != factors.size()) {
+      ctx.fail("/classes/" + std::to_string(k) + "/local_factors: must list every prime of the modulus, in its order");
+      return;
+    }
   Arb limits[2];
   Fmpz residues[2];
   Fmpq rho_at_dp[2];
@@ -346,6 +351,8 @@ void verify_nonconvergent(Ctx& ctx, const json& j, const ProgressionPair& pair, 
   }
   if (residues[0] == residues[1]) ctx.fail("/classes/1/residue: the two classes are the same residue");
   if (rho_at_dp[0] == rho_at_dp[1]) ctx.fail("/distinguishing_prime: rho at this prime is the same on both classes");
+  else if (fmpq_cmp(rho_at_dp[0].get(), rho_at_dp[1].get()) < 0)
+    ctx.fail("/classes: the class with the larger rho at distinguishing_prime comes first (canonical order)");
   if (arb_overlaps(limits[0], limits[1]))
     ctx.fail("/classes: the limit intervals of the two classes overlap: NON-CONVERGENT is not established");
   else
@@ -500,7 +507,7 @@ VerifyReport verify_certificate(const json& j, const VerifyLimits& limits) {
   check_certificate_schema(j);  // UserError naming the field
   const json& prov = j.at("provenance");
   if (prov.at("version") != kVersion)
-    throw UserError("certificate written by circlet version " + prov.at("version").get<std::string>() +
+    throw UserError("certificate field /provenance/version: certificate written by circlet version " + prov.at("version").get<std::string>() +
                     ", this is version " + kVersion + "; re-run certify with this version");
   Ctx ctx;
   ctx.limits = limits;
