@@ -97,7 +97,7 @@ json parse_certificate_text(const std::string& text) {
   try {
     return json::parse(text, cb);
   } catch (const json::exception& e) {
-    throw UserError(std::string("not JSON: ") + e.what());
+    throw UserError(std::string("is not JSON: ") + e.what());
   }
 }
 
@@ -371,9 +371,10 @@ void constant(const json& j, long prec) {
 }  // namespace
 
 void check_certificate_schema(const json& j) {
-  if (!j.is_object()) bad("", "a certificate is a JSON object");
-  if (!j.contains("format")) bad("", "missing field 'format'");
-  exact(j["format"], "/format", kCertificateFormat);
+  if (!j.is_object()) bad("", "not a certificate (a certificate is a JSON object)");
+  if (!j.contains("format")) bad("", "not a certificate: missing field 'format'");
+  if (j["format"] != kCertificateFormat)
+    bad("/format", "not a certificate of this program: the format must be \"" + std::string(kCertificateFormat) + "\"");
   if (!j.contains("verdict")) bad("", "missing field 'verdict'");
   const std::string& v = str(j["verdict"], "/verdict");
   std::vector<std::string> want = {"format", "digest", "provenance", "F", "G", "ap", "ap2", "weight",

@@ -15,7 +15,7 @@ inline constexpr size_t kCertMaxBytes = 4u << 20;
 /// Parses JSON text: at most kCertMaxBytes, nesting depth at most 16, no
 /// duplicate key in any object, no floating-point number. Throws UserError
 /// ("<pointer>: duplicate key 'k'", "<pointer>: ... is not an integer", or
-/// "not JSON: ...").
+/// "is not JSON: ...").
 nlohmann::json parse_certificate_text(const std::string& text);
 
 /// Checks every key, type, limit and canonical spelling of the format (not the
