@@ -34,7 +34,7 @@ checker/circlet_check.py exists (the independent checker), it is run on every
 mutation too and must reject it (non-zero exit, no Python traceback), and accept
 every unedited certificate.
 
-Usage: tests/certificate_mutations.py [--circlet BUILD/circlet] [--jobs 2] [--limit N]
+Usage: tests/certificate_mutations.py [--circlet BUILD/circlet] [--jobs 2] [--limit N] [--pycheck FILE]
 Exit status 0 when every mutation was rejected as required.
 Uses the standard library only.
 """
@@ -298,6 +298,8 @@ def main():
     ap.add_argument("--circlet", default=os.environ.get("CIRCLET", os.path.join(ROOT, "build", "circlet")))
     ap.add_argument("--jobs", type=int, default=2)
     ap.add_argument("--limit", type=int, default=0, help="at most this many mutations per certificate (0: all)")
+    ap.add_argument("--pycheck", default=os.path.join(ROOT, "checker", "circlet_check.py"),
+                    help="the independent checker, run too when the file exists")
     args = ap.parse_args()
     files = sorted(set(glob.glob(os.path.join(ROOT, "results", "default", "cert_*.json")) +
                        glob.glob(os.path.join(ROOT, "results", "scan_t6-10_M8", "examples", "cert_*.json")) +
@@ -312,7 +314,7 @@ def main():
             seen.add(key)
             certs.append((os.path.relpath(f, ROOT), c))
     checkers = [("circlet verify", [args.circlet, "verify"])]
-    py = os.path.join(ROOT, "checker", "circlet_check.py")
+    py = args.pycheck
     if os.path.exists(py):
         checkers.append(("checker/circlet_check.py", [sys.executable, py]))
     failures, total = [], 0
