@@ -2,6 +2,7 @@
 // (src/progression/verify.hpp). Exit status 0 only when every claim holds, 1 otherwise.
 #include <cstdlib>
 #include <filesystem>
+#include <fstream>
 #include <iostream>
 #include <memory>
 
@@ -23,12 +24,23 @@ struct VerifyCliOptions {
 };
 
 void run_verify(const VerifyCliOptions& o) {
-  {
-    std::error_code ec;
-    if (std::filesystem::is_regular_file(o.path, ec) && std::filesystem::file_size(o.path, ec) > kCertMaxBytes)
+  std::error_code ec;
+  const auto st = std::filesystem::status(o.path, ec);
+  if (std::filesystem::is_regular_file(st) && std::filesystem::file_size(o.path, ec) > kCertMaxBytes)
+    throw UserError(o.path + " is larger than " + std::to_string(kCertMaxBytes) + " bytes, the limit for a certificate");
+  std::string text;
+  if (std::filesystem::exists(st) && !std::filesystem::is_regular_file(st) && !std::filesystem::is_directory(st)) {
+    // A pipe or a device (e.g. /dev/zero): read at most the limit, never forever.
+    std::ifstream in(o.path, std::ios::binary);
+    if (!in) throw UserError("cannot read " + o.path);
+    text.resize(kCertMaxBytes + 1);
+    in.read(&text[0], static_cast<std::streamsize>(text.size()));
+    text.resize(static_cast<size_t>(in.gcount()));
+    if (text.size() > kCertMaxBytes)
       throw UserError(o.path + " is larger than " + std::to_string(kCertMaxBytes) + " bytes, the limit for a certificate");
+  } else {
+    text = read_file(o.path);
   }
-  const std::string text = read_file(o.path);
   // Malformed input (docs/certificate-format.md §1): UserError naming the field, status 2.
   // A well-formed certificate whose digest or claims fail: status 1.
   VerifyReport r;
