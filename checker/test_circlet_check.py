@@ -206,12 +206,14 @@ class Counting(unittest.TestCase):
         # and |beta_q - 1| <= d_q, for q = 5..31 including q | X
         for name in ("c6", "sc11", "c7", "sc13", "c8"):
             fam = cc.Family(name, "F")
-            cap = cc.MAX_COUNT_MOD_C if fam.kind == "c" else cc.MAX_COUNT_MOD_SC
+            cap = 49 if fam.kind == "c" else cc.MAX_COUNT_MOD_SC   # c_t: cost t cap^3
             for q in (5, 7, 11, 13, 17, 19, 23, 29, 31):
                 if fam.t % q == 0:
                     continue
-                Ns = [N for N in range(0, 3 * q) if q ** (cc.vp(fam.X(N), q) + 1) <= cap]
-                Ns += [N for N in range(0, q ** 3) if cc.vp(fam.X(N), q) == 2 and q ** 3 <= cap][:2]
+                vs = [(N, cc.vp(fam.X(N), q)) for N in range(0, q ** 3 if q ** 3 <= cap else 3 * q)]
+                Ns = [N for N, v in vs if v == 0][:q]
+                Ns += [N for N, v in vs if v == 1 and q * q <= cap][:2]
+                Ns += [N for N, v in vs if v == 2 and q ** 3 <= cap][:2]
                 hit_div = False
                 for N in Ns:
                     j, _ = fam.stable_level(q, N, 99, "f")
