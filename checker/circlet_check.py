@@ -263,6 +263,7 @@ def primes_upto(n):
 def vp(x, p):
     """p-adic valuation of a non-zero rational."""
     x = Fr(x)
+    need(x != 0 and p >= 2, "/", "valuation of 0")
     v, a, b = 0, x.numerator, x.denominator
     while a % p == 0:
         a //= p
@@ -354,6 +355,7 @@ def beta_on_class(fam, p, A, B, res, e, field):
     N, k = A * res + B, fam.kappa(p)
     if k == 0:
         return fam.count(p, 1, N, field)
+    need(fam.X(N) != 0, field, "not pinned: X = 0 at the representative")
     v = vp(fam.X(N), p)
     need(v >= 0, field, "X is not p-integral")
     need(v + k <= vp(A, p) + e, field,
