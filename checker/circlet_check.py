@@ -301,9 +301,9 @@ class Family:
         sum x = 0, normalised by p^{j(t-2)}).  Histogram convolution."""
         M = p ** j
         t = self.t
+        need(self.cost(M) <= MAX_COST, field, "counting modulus %d beyond the limit" % M)
         if self.kind != "c":   # sc_t: t y^2 + (2i+1-t) y per coordinate; sq_t: y^2
             a, b = (t, lambda i: 2 * i + 1 - t) if self.kind == "sc" else (1, lambda i: 0)
-            need(self.r * M * M <= MAX_COST, field, "counting modulus %d beyond limit" % M)
             dist = [1] + [0] * (M - 1)
             for i in range(self.r):
                 new = [0] * M
@@ -312,7 +312,6 @@ class Family:
                     new = list(map(int.__add__, new, dist[-v:] + dist[:-v] if v else dist))
                 dist = new
             return Fr(dist[N % M], M ** (self.r - 1))
-        need(t * M ** 3 <= MAX_COST, field, "counting modulus %d beyond limit" % M)
         # c_t: rows indexed by sum x mod M, columns by the value.  For p = 2
         # the value is W = 2P = t sum x^2 + 2 sum i x mod 2M, well defined on
         # (Z/2^j)^t for j >= 1 (x_i -> x_i + 2^j changes W by t 4^j mod 2^{j+1});
@@ -338,6 +337,9 @@ class Family:
             rows = new
         return Fr(rows[0][target], M ** (t - 2))
 
+    def cost(self, M):
+        return self.t * M ** 3 if self.kind == "c" else self.r * M * M
+
     def kappa(self, p):
         """Pinning/stability margin (T5; docs/certificate-format.md §3): 0 if
         p | t for c_t, sc_t; 3 at p = 2 (v_2(X) + 3 is stable for every
@@ -360,7 +362,27 @@ def beta_on_class(fam, p, A, B, res, e, field):
     need(v >= 0, field, "X is not p-integral")
     need(v + k <= vp(A, p) + e, field,
          "not pinned: needs v_p(A) + e >= %d (docs/MATH.md §7.1)" % (v + k))
+    if p > 2 and fam.cost(p ** (v + 1)) > MAX_COST:
+        return beta_by_levels(fam, p, fam.X(N), field)
     return fam.count(p, v + k, N, field)
+
+
+def beta_by_levels(fam, p, X, field):
+    """beta_p at X for odd p where 2S is unimodular, from counts mod p only.
+    Split the solutions z of Q(z) = X (z the completed variable, T5): those
+    with z != 0 mod p have a unit gradient 2Sz and lift evenly from mod p:
+    density prim(X) = (N_1 - [p | X]) / p^{r-1} (N_1 counts mod p; z = 0 mod p
+    is the single class x = -c of the model).  Those with z = p z' give
+    Q(z') = X/p^2, density p^{2-r} beta(X/p^2), and exist only if p^2 | X.
+    So beta(X) = sum_i p^{i(2-r)} prim(X/p^{2i}) over i while p^{2i} | X."""
+    total, scale = Fr(0), Fr(1)
+    while True:
+        y = X - fam.delta        # the model's argument n at this level, mod p
+        n = y.numerator * pow(y.denominator, -1, p) % p
+        total += scale * (fam.count(p, 1, n, field) - Fr(int(vp(X, p) >= 1), p ** (fam.r - 1)))
+        if vp(X, p) < 2:
+            return total
+        X, scale = X / p ** 2, scale * Fr(p) ** (2 - fam.r)
 
 
 # --------------------------------------------------------------- the tail --

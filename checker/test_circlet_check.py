@@ -222,6 +222,21 @@ class Counting(unittest.TestCase):
                     self.assertEqual(len(vals), 1, (name, p, N, levels, vals))
                 self.assertGreater(tested, 10, (name, p))
 
+    def test_levels_recursion_equals_direct_count(self):
+        # the recursion used for large moduli (counts mod p only) against
+        # direct counting mod p^{v+1}, including v = 1, 2, 3
+        for name, p in (("c4", 3), ("c5", 3), ("c7", 3), ("sc9", 5), ("sc7", 3), ("sq4", 3), ("sq5", 5)):
+            fam = cc.Family(name, "F")
+            seen = set()
+            for N in range(1, 400):
+                v = cc.vp(fam.X(N), p)
+                if fam.cost(p ** (v + 1)) > 1 << 22 or fam.t % p == 0:
+                    continue
+                seen.add(v)
+                self.assertEqual(cc.beta_by_levels(fam, p, fam.X(N), "f"),
+                                 fam.count(p, v + 1, N, "f"), (name, p, N))
+            self.assertTrue({0, 1, 2} <= seen, (name, seen))
+
     def test_beta_is_one_at_primes_of_t(self):
         for name, p in (("c6", 2), ("c6", 3), ("c9", 3), ("sc15", 5), ("sc6", 2), ("c10", 5)):
             fam = cc.Family(name, "F")
