@@ -78,11 +78,11 @@ EOF
   while read -r F G ap ap2; do
     i=$((i + 1))
     out="$tmp/cert_${F}_${ap/,/_}__${G}_${ap2/,/_}.json"
-    if "$CIRCLET" certify "$F" "$G" --ap "$ap" --ap2 "$ap2" -o "$out" > /dev/null 2>&1; then
+    if "$CIRCLET" certify "$F" "$G" --ap "$ap" --ap2 "$ap2" -o "$out" > "$tmp/certify.log" 2>&1; then
       check_one "$out" agree
     else
       failed=$((failed + 1))
-      echo "FAIL circlet certify $F $G --ap $ap --ap2 $ap2"
+      echo "FAIL circlet certify $F $G --ap $ap --ap2 $ap2: $(tail -n 1 "$tmp/certify.log")"
     fi
   done < "$tmp/pairs"
 fi
