@@ -295,10 +295,11 @@ class Family:
     def X(self, N):
         return N + self.delta
 
-    def count(self, p, j, N, field):
+    def count(self, p, j, N, field, odd_class=None):
         """N_j(N) = #{solutions mod p^j of the model = N}; returns
         beta = N_j / p^{j(r-1)} (docs/MATH.md §3, c_t: x in (Z/p^j)^t with
-        sum x = 0, normalised by p^{j(t-2)}).  Histogram convolution."""
+        sum x = 0, normalised by p^{j(t-2)}).  Histogram convolution.
+        sc/sq with odd_class = y0: only the y with y = y0 mod 2."""
         M = p ** j
         t = self.t
         need(self.cost(M) <= MAX_COST, field, "counting modulus %d beyond the limit" % M)
@@ -307,7 +308,7 @@ class Family:
             dist = [1] + [0] * (M - 1)
             for i in range(self.r):
                 new = [0] * M
-                for y in range(M):
+                for y in range(M) if odd_class is None else range(odd_class[i], M, 2):
                     v = (a * y * y + b(i) * y) % M
                     new = list(map(int.__add__, new, dist[-v:] + dist[:-v] if v else dist))
                 dist = new
@@ -362,24 +363,29 @@ def beta_on_class(fam, p, A, B, res, e, field):
     need(v >= 0, field, "X is not p-integral")
     need(v + k <= vp(A, p) + e, field,
          "not pinned: needs v_p(A) + e >= %d (docs/MATH.md §7.1)" % (v + k))
-    if p > 2 and fam.cost(p ** (v + 1)) > MAX_COST:
+    if fam.cost(p ** (v + k)) > MAX_COST:
         return beta_by_levels(fam, p, fam.X(N), field)
     return fam.count(p, v + k, N, field)
 
 
 def beta_by_levels(fam, p, X, field):
-    """beta_p at X for odd p where 2S is unimodular, from counts mod p only.
-    Split the solutions z of Q(z) = X (z the completed variable, T5): those
-    with z != 0 mod p have a unit gradient 2Sz and lift evenly from mod p:
-    density prim(X) = (N_1 - [p | X]) / p^{r-1} (N_1 counts mod p; z = 0 mod p
-    is the single class x = -c of the model).  Those with z = p z' give
-    Q(z') = X/p^2, density p^{2-r} beta(X/p^2), and exist only if p^2 | X.
-    So beta(X) = sum_i p^{i(2-r)} prim(X/p^{2i}) over i while p^{2i} | X."""
+    """beta_p at X (kappa > 0) from counts mod p^k0 only, k0 = 3 for sc/sq at
+    p = 2, else 1.  Split the solutions z of Q(z) = X (z the completed
+    variable, T5): those with z != 0 mod p have gradient 2Sz of valuation
+    k0 // 2 and lift evenly from mod p^k0: density prim(X) = (N_k0 - R)/p^{k0(r-1)},
+    R the solutions mod p^k0 in the class z = 0 mod p.  That class is the one
+    point x = -c mod p of the model when k0 = 1 (R = [p | X]); for sc_t at 2
+    it is y_i = (2i+1-t)/2 mod 2 (c_i = (2i+1-t)/(2t), t odd), for sq_t y = 0.
+    Those with z = p z' give Q(z') = X/p^2: density p^{2-r} beta(X/p^2), only
+    if p^2 | X.  So beta(X) = sum_i p^{i(2-r)} prim(X/p^{2i}) while p^{2i} | X."""
+    k0 = 3 if p == 2 and fam.kind != "c" else 1
+    y0 = [((2 * i + 1 - fam.t) // 2) % 2 if fam.kind == "sc" else 0 for i in range(fam.r)]
     total, scale = Fr(0), Fr(1)
     while True:
-        y = X - fam.delta        # the model's argument n at this level, mod p
-        n = y.numerator * pow(y.denominator, -1, p) % p
-        total += scale * (fam.count(p, 1, n, field) - Fr(int(vp(X, p) >= 1), p ** (fam.r - 1)))
+        y = X - fam.delta        # the model's argument n at this level, mod p^k0
+        n = y.numerator * pow(y.denominator, -1, p ** k0) % p ** k0
+        R = fam.count(p, 3, n, field, y0) if k0 == 3 else Fr(int(vp(X, p) >= 1), p ** (fam.r - 1))
+        total += scale * (fam.count(p, k0, n, field) - R)
         if vp(X, p) < 2:
             return total
         X, scale = X / p ** 2, scale * Fr(p) ** (2 - fam.r)
@@ -745,7 +751,7 @@ def main(argv):
             print("malformed: %s" % e)
             return 2
         v = check(cert, say)
-        print("accepted (%s)" % v)
+        print("accepted (%s)" % ("UNDECIDED: claims nothing" if v == "UNDECIDED" else v))
         return 0
     except Reject as e:
         print("rejected: %s" % e)
