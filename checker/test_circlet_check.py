@@ -445,7 +445,8 @@ class Certificates(unittest.TestCase):
                 out = os.path.join(d, "cert.json")
                 subprocess.run([exe, "certify", F, G, "--ap", ap, "--ap2", ap2, "-o", out],
                                check=True, capture_output=True)
-                c = load(out)
+                with open(out, encoding="utf-8") as fh:
+                    c = cc.load_strict(fh.read())
                 if c.get("format") != cc.FORMAT:
                     self.skipTest("build/circlet writes %s" % c.get("format"))
                 self.assertEqual(cc.check(c), verdict, (F, G, ap, ap2))
