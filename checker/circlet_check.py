@@ -54,7 +54,8 @@ from functools import lru_cache
 # bounded by these; an input beyond them is refused.
 MAX_FILE = 4 << 20
 MAX_PRIME_POWER = 1 << 20   # p^e this checker enumerates (classes, residues)
-MAX_COST = 1 << 25          # counting: t p^{3j} for c_t, m p^{2j} otherwise
+MAX_COST = 1 << 25          # one count: t p^{3j} for c_t, m p^{2j} otherwise
+MAX_WORK = [1 << 28, 0]     # all counts of one certificate: limit, used
 Q2 = 20000                  # tail.explicit_primes_up_to
 THEOREMS = ["siegel-eisenstein", "cusp-bound", "local-densities"]
 FORMAT = "circlet-certificate/2"
@@ -277,6 +278,9 @@ def vp(x, p):
     return v
 
 
+COUNTS = {}                 # (family, p, j, N mod p^j, class) -> beta
+
+
 class Family:
     """c_t, sc_t or sq_t (sum of t squares) with the data of docs/MATH.md §2 (T2)."""
 
@@ -306,6 +310,16 @@ class Family:
         M = p ** j
         t = self.t
         need(self.cost(M) <= MAX_COST, field, "counting modulus %d beyond the limit" % M)
+        key = (self.kind, t, p, j, N % M, tuple(odd_class or ()))
+        if key in COUNTS:
+            return COUNTS[key]
+        MAX_WORK[1] += self.cost(M)
+        need(MAX_WORK[1] <= MAX_WORK[0], field, "total counting work beyond the limit")
+        COUNTS[key] = self._count(p, j, N, M, odd_class)
+        return COUNTS[key]
+
+    def _count(self, p, j, N, M, odd_class):
+        t = self.t
         if self.kind != "c":   # sc_t: t y^2 + (2i+1-t) y per coordinate; sq_t: y^2
             a, b = (t, lambda i: 2 * i + 1 - t) if self.kind == "sc" else (1, lambda i: 0)
             dist = [1] + [0] * (M - 1)
@@ -727,6 +741,7 @@ def check(cert, say=lambda s: None):
     for k in COMMON:
         need(k in cert, "/" + k, "missing field")
     need(cert["digest"] == digest_of(cert), "/digest", "does not match the content")
+    MAX_WORK[1] = 0
     F, G, w, aps, prec = check_common(cert)
     v = cert["verdict"]
     if v == "NON-CONVERGENT":
