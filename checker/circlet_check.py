@@ -646,7 +646,8 @@ def check_nonconvergent(c, F, G, w, aps, prec, say):
     need(diff == [dp], "/distinguishing_prime",
          "must be the only prime where the local factors differ (they differ at %s)" % diff)
     i = ps.index(dp)
-    need(facs[0][i]["rho"] != facs[1][i]["rho"], "/distinguishing_prime", "rho does not differ")
+    need(Fr(facs[0][i]["rho"]) > Fr(facs[1][i]["rho"]), "/classes",
+         "canonical order: the class with the larger rho at distinguishing_prime comes first")
 
 
 # ------------------------------------------------------------- CONSTANT --

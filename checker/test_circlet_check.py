@@ -402,6 +402,7 @@ class Certificates(unittest.TestCase):
             (nc, lambda c: c["theorems"].reverse(), "/theorems"),
             (nc, lambda c: c.pop("tail"), "/tail"),
             (nc, lambda c: c["classes"].pop(), "/classes"),
+            (nc, lambda c: c["classes"].reverse(), "/classes"),
             (nc, setv(["classes", 0, "limit_interval", "mid"], "1*2^99999"), "/classes/0/limit_interval/mid"),
             (nc, setv(["classes", 0, "limit_interval", "rad"], "-1*2^0"), "/classes/0/limit_interval/rad"),
             (nc, setv(["verdict"], "CONSTANT"), "/constant_route"),
