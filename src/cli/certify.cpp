@@ -23,11 +23,13 @@ void run_certify(const CertifyCliOptions& o) {
   Family f = Family::parse(o.F), g = Family::parse(o.G);
   Progression ap = o.ap.empty() ? Progression{} : Progression::parse(o.ap);
   Progression ap2 = o.ap2.empty() ? Progression{} : Progression::parse(o.ap2);
+  if (ap.A > kCertMaxStep || ap.B > kCertMaxStep || ap2.A > kCertMaxStep || ap2.B > kCertMaxStep)
+    throw UserError("a certificate's progressions need A, B <= 10^12 (docs/certificate-format.md)");
   ProgressionPair pair(f, ap, g, ap2);
   CertifyOptions opt;
   opt.Q_max = static_cast<ulong>(parse_nonnegative("--qmax", o.qmax, 1000));
   if (opt.Q_max < 3) throw UserError("--qmax must be at least 3");
-  opt.prec = parse_nonnegative("--prec", o.prec, 100000);
+  opt.prec = parse_nonnegative("--prec", o.prec, kCertMaxPrecision);  // the certificate format's limit
   if (opt.prec < 64) throw UserError("--prec must be at least 64 bits");
   Certificate c = certify_pair(pair, opt);
   std::string text = certificate_to_json(c).dump(2) + "\n";

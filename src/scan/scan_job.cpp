@@ -1,5 +1,7 @@
 #include "scan/scan_job.hpp"
 
+#include "core/error.hpp"
+
 #include "progression/ball_io.hpp"
 #include "progression/certificate.hpp"
 #include "progression/verify.hpp"
@@ -37,9 +39,14 @@ nlohmann::json run_scan_job(ScanContext& ctx, const ScanJob& job) {
     r["verdict"] = verdict_name(c.verdict);
     r["reason"] = c.reason;
     if (ctx.settings().verify) {
-      VerifyReport v = verify_certificate(certificate_to_json(c));
-      r["verified"] = v.ok();
-      if (!v.ok()) r["verify_failure"] = v.failures.front();
+      try {
+        VerifyReport v = verify_certificate(certificate_to_json(c));
+        r["verified"] = v.ok();
+        if (!v.ok()) r["verify_failure"] = v.failures.front();
+      } catch (const UserError& e) {  // e.g. a count beyond verify's time limit
+        r["verified"] = false;
+        r["verify_failure"] = e.what();
+      }
     }
     if (c.verdict == Verdict::NonConvergent) {
       r["Q"] = c.Q;
