@@ -59,6 +59,7 @@ MAX_WORK = [1 << 28, 0]     # all counts of one certificate: limit, used
 Q2 = 20000                  # tail.explicit_primes_up_to
 THEOREMS = ["siegel-eisenstein", "cusp-bound", "local-densities"]
 FORMAT = "circlet-certificate/2"
+VERSIONS = ("0.1.0",)       # circlet versions whose certificates this checker knows
 
 
 class Reject(Exception):
@@ -86,6 +87,15 @@ def _no_float(s):
 def load_strict(text):
     return json.loads(text, object_pairs_hook=_pairs, parse_float=_no_float,
                       parse_constant=_no_float)
+
+
+def depth(o):
+    """Nesting depth of a parsed JSON value (format §1.2: at most 16)."""
+    level, todo = -1, [o]
+    while todo:
+        level, todo = level + 1, [v for x in todo if isinstance(x, (dict, list))
+                                  for v in (x.values() if isinstance(x, dict) else x)]
+    return level
 
 
 def digest_of(cert):
@@ -479,8 +489,7 @@ def check_common(c):
     pv = c["provenance"]
     keys(pv, "/provenance", ("program", "version", "command", "date"))
     need(pv["program"] == "circlet", "/provenance/program", "must be circlet")
-    need(type(pv["version"]) is str and re.fullmatch(r"[0-9]+\.[0-9]+\.[0-9]+", pv["version"]),
-         "/provenance/version", "not a version x.y.z")
+    need(pv["version"] in VERSIONS, "/provenance/version", "not one of %s" % (VERSIONS,))
     (A, B), (A2, B2) = aps
     cmd = "circlet certify %s %s --ap %d,%d --ap2 %d,%d --qmax %d --prec %d" % (
         c["F"], c["G"], A, B, A2, B2, qmax, prec)
@@ -720,9 +729,8 @@ def check_constant(c, F, G, w, aps, prec, say):
 
 
 def rat_sqrt(x):
-    a, b = x.numerator, x.denominator
-    ra, rb = math.isqrt(a), math.isqrt(b)
-    return Fr(ra, rb) if x >= 0 and ra * ra == a and rb * rb == b else None
+    ra, rb = math.isqrt(x.numerator), math.isqrt(x.denominator)   # x >= 0 here
+    return Fr(ra, rb) if ra * ra == x.numerator and rb * rb == x.denominator else None
 
 
 def prime_factors(n):
@@ -738,6 +746,7 @@ def prime_factors(n):
 # ------------------------------------------------------------------ main --
 def check(cert, say=lambda s: None):
     need(isinstance(cert, dict), "", "must be a JSON object")
+    need(depth(cert) <= 16, "", "nesting deeper than 16")
     need(cert.get("format") == FORMAT, "/format", "must be %s" % FORMAT)
     for k in COMMON:
         need(k in cert, "/" + k, "missing field")
@@ -779,9 +788,6 @@ def main(argv):
     except Reject as e:
         print("rejected: %s" % e)
         return 1
-    except RecursionError:
-        print("malformed: nesting too deep")
-        return 2
     except Exception as e:   # never a traceback
         print("malformed: %s: %s" % (type(e).__name__, e))
         return 2
