@@ -15,7 +15,6 @@ Outside references used here:
   * the closed forms of docs/MATH.md §4 (for the tail bound);
   * Python's math.exp / math.sqrt (IEEE double, error < 1 ulp).
 """
-import copy
 import hashlib
 import io
 import itertools
@@ -136,43 +135,9 @@ REAL = [os.path.join(ROOT, p) for p in (
     "results/scan_t6-10_M8/examples/cert_c9_34_1__sc17_102_1.json")]
 
 
-def to_v2(c):
-    """circlet-certificate/1 -> /2 (for testing before certify writes /2)."""
-    c = copy.deepcopy(c)
-    c["format"] = "circlet-certificate/2"
-    for k in ("reason", "constant_argument", "digest"):
-        c.pop(k, None)
-    c.setdefault("Q_max", 47)
-    c["theorems"] = [] if c["verdict"] == "UNDECIDED" else list(cc.THEOREMS)
-    P = c["precision_bits"]
-    pv = c["provenance"]
-    pv.pop("precision_bits", None)
-    pv["command"] = "circlet certify %s %s --ap %d,%d --ap2 %d,%d --qmax %d --prec %d" % (
-        c["F"], c["G"], c["ap"]["A"], c["ap"]["B"], c["ap2"]["A"], c["ap2"]["B"], c["Q_max"], P)
-
-    def strip(o):
-        if isinstance(o, dict):
-            for k in ("decimal", "note", "limit_interval_display", "per_prime_bound"):
-                o.pop(k, None)
-            for v in o.values():
-                strip(v)
-        elif isinstance(o, list):
-            for v in o:
-                strip(v)
-    strip(c)
-    if "tail" in c:
-        c["tail"].pop("Q", None)
-        c["tail"]["route"] = "bound"
-    c["digest"] = cc.digest_of(c)
-    return c
-
-
 def load(path):
-    """A committed certificate, as circlet-certificate/2 (converted when the
-    committed file is still /1; the digest is then recomputed)."""
     with open(path, encoding="utf-8") as fh:
-        c = cc.load_strict(fh.read())
-    return to_v2(c) if c.get("format") == "circlet-certificate/1" else c
+        return cc.load_strict(fh.read())
 
 
 class Models(unittest.TestCase):
@@ -446,8 +411,7 @@ class Certificates(unittest.TestCase):
                 out = os.path.join(d, "cert.json")
                 subprocess.run([exe, "certify", F, G, "--ap", ap, "--ap2", ap2, "-o", out],
                                check=True, capture_output=True)
-                with open(out, encoding="utf-8") as fh:
-                    c = cc.load_strict(fh.read())
+                c = load(out)
                 if c.get("format") != cc.FORMAT:
                     self.skipTest("build/circlet writes %s" % c.get("format"))
                 self.assertEqual(cc.check(c), verdict, (F, G, ap, ap2))
