@@ -604,7 +604,7 @@ def check_nonconvergent(c, F, G, w, aps, prec, say):
         E.append(e)
     need(get_nat(c, "modulus", "/modulus", 2 ** 64 ** 2) == M, "/modulus",
          "is not prod p^e = %d" % M)
-    limits, facs = [], []
+    limits, facs, exps = [], [], []
     for ci, k in enumerate(cl):
         fl = "/classes/%d" % ci
         keys(k, fl, ("residue", "local_factors", "pinned_product", "limit_interval",
@@ -641,11 +641,9 @@ def check_nonconvergent(c, F, G, w, aps, prec, say):
         check_ball(k["interval_n_ge_n0"], fl + "/interval_n_ge_n0", prec,
                    imul(sig, prange, (prod, prod), tail), bmul(sig, prange, (prod, prod), near))
         facs.append(lf)
-        E2 = es
-        if ci == 1:
-            need([max(a, b) for a, b in zip(E1, E2)] == E, "/modulus_factors",
-                 "e is not the larger of the classes' exponents")
-        E1 = es
+        exps.append(es)
+    need([max(a, b) for a, b in zip(*exps)] == E, "/modulus_factors",
+         "e is not the larger of the classes' exponents")
     need(cl[0]["residue"] != cl[1]["residue"], "/classes/1/residue", "the two residues coincide")
     (a, b), (a2, b2) = limits
     need(c["disjoint"] is True, "/disjoint", "must be true")
