@@ -1,0 +1,92 @@
+#!/usr/bin/env bash
+# Runs the two certificate checkers -- `circlet verify` (C++) and
+# checker/circlet_check.py (Python, shares no code) -- over
+#   1. every certificate committed under results/ (files cert_*.json),
+#   2. every file of fuzz/corpus/certificate/ (cert_*.json must be accepted,
+#      every other file there is malformed and must be rejected by both),
+#   3. a seeded random sample of certificates from a fresh small scan
+#      (`circlet scan` writes verdicts; each sampled pair is re-certified
+#      with `circlet certify`).
+# A file fails when the two checkers disagree (accepted vs rejected) or when
+# an expectation above is not met.  Closing line: "N passed, M failed".
+#
+# Environment: CIRCLET (default build/circlet), SEED (default: from the clock,
+# printed), SAMPLE (default 20), PYTHON (default /usr/bin/python3).
+set -u
+cd "$(dirname "$0")/.."
+CIRCLET=${CIRCLET:-build/circlet}
+PYTHON=${PYTHON:-/usr/bin/python3}
+SAMPLE=${SAMPLE:-20}
+SEED=${SEED:-$(date +%s)}
+CHECK=checker/circlet_check.py
+[ -x "$CIRCLET" ] || { echo "independent-check: $CIRCLET not built" >&2; exit 2; }
+
+tmp=$(mktemp -d)
+trap 'rm -rf "$tmp"' EXIT
+passed=0
+failed=0
+
+# one file: $1 = path, $2 = expectation (accept | reject | agree)
+check_one() {
+  local f=$1 want=$2 c p cout pout
+  cout=$("$CIRCLET" verify "$f" 2>&1); c=$?
+  pout=$(timeout 300 "$PYTHON" "$CHECK" "$f" 2>&1); p=$?
+  local cv=rejected pv=rejected
+  [ $c -eq 0 ] && cv=accepted
+  [ $p -eq 0 ] && pv=accepted
+  if [ $p -gt 2 ]; then pv="crashed($p)"; fi
+  local ok=1
+  [ "$cv" = "$pv" ] || ok=0
+  [ "$want" = accept ] && [ "$pv" != accepted ] && ok=0
+  [ "$want" = reject ] && [ "$pv" != rejected ] && ok=0
+  if [ $ok -eq 1 ]; then
+    passed=$((passed + 1))
+    echo "PASS $f: both $cv"
+  else
+    failed=$((failed + 1))
+    echo "FAIL $f (expected $want): circlet verify $cv, circlet_check.py $pv"
+    echo "     verify: $(echo "$cout" | tail -n 1)"
+    echo "     python: $(echo "$pout" | tail -n 1)"
+  fi
+}
+
+echo "== certificates committed under results/"
+while IFS= read -r f; do check_one "$f" accept; done \
+  < <(find results -name 'cert_*.json' | sort)
+
+echo "== fuzz/corpus/certificate/"
+for f in fuzz/corpus/certificate/*; do
+  case $(basename "$f") in
+    cert_*.json) check_one "$f" accept ;;
+    *) check_one "$f" reject ;;
+  esac
+done
+
+echo "== a fresh scan, random sample of $SAMPLE certificates, seed $SEED"
+if ! "$CIRCLET" scan --t 6..8 --modulus 3 -o "$tmp/scan" > "$tmp/scan.log" 2>&1; then
+  echo "FAIL circlet scan: $(tail -n 1 "$tmp/scan.log")"
+  failed=$((failed + 1))
+else
+  "$PYTHON" - "$tmp/scan/scan.json" "$SEED" "$SAMPLE" > "$tmp/pairs" <<'EOF'
+import json, random, sys
+rows = json.load(open(sys.argv[1]))["rows"]
+rng = random.Random(int(sys.argv[2]))
+for r in rng.sample(rows, min(int(sys.argv[3]), len(rows))):
+    print(r["F"], r["G"], "%d,%d" % (r["A"], r["B"]), "%d,%d" % (r["A2"], r["B2"]))
+EOF
+  i=0
+  while read -r F G ap ap2; do
+    i=$((i + 1))
+    out="$tmp/cert_${F}_${ap/,/_}__${G}_${ap2/,/_}.json"
+    if "$CIRCLET" certify "$F" "$G" --ap "$ap" --ap2 "$ap2" -o "$out" > "$tmp/certify.log" 2>&1; then
+      check_one "$out" agree
+    else
+      failed=$((failed + 1))
+      echo "FAIL circlet certify $F $G --ap $ap --ap2 $ap2: $(tail -n 1 "$tmp/certify.log")"
+    fi
+  done < "$tmp/pairs"
+fi
+
+echo "seed $SEED"
+echo "$passed passed, $failed failed"
+[ $failed -eq 0 ]
