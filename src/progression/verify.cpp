@@ -3,6 +3,7 @@
 #include <flint/ulong_extras.h>
 
 #include <map>
+#include <mutex>
 #include <tuple>
 
 #include "circlet/version.hpp"
@@ -143,6 +144,8 @@ void verify_nonconvergent(Ctx& ctx, const nlohmann::json& j, const ProgressionPa
   } else {
     // Shared between the certificates of one process (a scan with --verify).
     static std::map<std::tuple<int, ulong, ulong, slong>, std::pair<Arb, Arb>> cache;
+    static std::mutex mu;  // scans verify on several threads
+    std::lock_guard<std::mutex> lock(mu);
     auto key = std::make_tuple(rank, Q, q2, prec);
     auto it = cache.find(key);
     if (it == cache.end()) {
