@@ -209,6 +209,8 @@ void write_scan_outputs(const std::string& dir, ResultsDb& db, ScanContext* ctx,
   const nlohmann::json& header = db.header();
   const Provenance prov = Provenance::now(command_line(), header.value("prec", 0L));
   nlohmann::json summary = scan_summary(db, ctx);
+  const std::string merged_from = db.plan_value("merged_from");
+  const std::string shard = merged_from.empty() ? db.shard() : "all, merged from " + merged_from + " shards";
   if (csv) {
     AtomicFile f(dir + "/scan.csv");
     std::ostream& out = f.stream();
@@ -224,11 +226,11 @@ void write_scan_outputs(const std::string& dir, ResultsDb& db, ScanContext* ctx,
     });
     f.commit();
   }
-  nlohmann::json j{{"provenance", prov.to_json()}, {"header", header}, {"shard", db.shard()},
+  nlohmann::json j{{"provenance", prov.to_json()}, {"header", header}, {"shard", shard},
                    {"database", "scan.db"}, {"summary", summary}};
   write_file_atomically(dir + "/summary.json", j.dump(1) + "\n");
   write_file_atomically(dir + "/summary.txt",
-                        "# " + prov.csv_comment().substr(2) + scan_summary_text(header, db.shard(), summary));
+                        "# " + prov.csv_comment().substr(2) + scan_summary_text(header, shard, summary));
 }
 
 namespace {
