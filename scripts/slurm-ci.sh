@@ -30,7 +30,7 @@ awk -v s="$start" -v e="$end" 'BEGIN { printf "slurm-ci: 4-task array plus merge
 # shellcheck disable=SC2086
 "$circlet" scan $scan -o "$work/single" 2>/dev/null
 
-python3 - "$work/array/merged/scan.db" "$work/single/scan.db" <<'PY'
+/usr/bin/python3 - "$work/array/merged/scan.db" "$work/single/scan.db" <<'PY'
 import sqlite3, sys
 def rows(path):
     con = sqlite3.connect("file:%s?mode=ro" % path, uri=True)
