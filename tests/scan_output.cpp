@@ -124,7 +124,7 @@ TEST_CASE("scan-merge refuses forged and malformed shards with exit 2, and its i
   sql(tmp.path + "/noplan/scan.db", "DROP TABLE plan");
   refused(tmp.path + "/noplan", "is not a circlet scan database");
   std::system(("mkdir -p " + tmp.path + "/text && echo hello > " + tmp.path + "/text/scan.db").c_str());
-  refused(tmp.path + "/text", "");
+  refused(tmp.path + "/text", "is not a circlet scan database (not an SQLite file)");
   // -o onto one of the inputs: refused, the input unchanged.
   const std::string before = slurp(s0 + "/scan.db");
   auto r = run_circlet("scan-merge " + s0 + " " + s1 + " -o " + s0);

@@ -88,13 +88,15 @@ ResultsDb::ResultsDb(const std::string& path, Mode mode, const nlohmann::json& h
     shard_ = shard;
   } else {
     {
-      SqliteStatement check(db_, "PRAGMA quick_check");
       std::string result;
       try {
+        SqliteStatement check(db_, "PRAGMA quick_check");
         while (check.step()) result += (result.empty() ? "" : "; ") + check.text_at(0);
       } catch (const UserError& e) {
         result = e.what();
       }
+      if (sqlite3_errcode(db_.get()) == SQLITE_NOTADB)
+        throw UserError(path + " is not a circlet scan database (not an SQLite file)");
       if (result != "ok")
         throw UserError(path + " is damaged (" + result.substr(0, 200) +
                         "); it was left unchanged: recover its intact rows with `sqlite3 " + path +
