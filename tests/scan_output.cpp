@@ -231,6 +231,17 @@ TEST_CASE("one worker thread and two give the same database", "[scan][threads]")
   CHECK(csv_rows(tmp.path + "/one") == csv_rows(tmp.path + "/two"));
 }
 
+TEST_CASE("progress goes to stderr only when asked or on a terminal", "[scan][progress]") {
+  TempDir tmp;
+  auto quiet = run_circlet("scan --t 6 --modulus 2 -o " + tmp.path + "/q");
+  REQUIRE(quiet.status == 0);
+  CHECK_THAT(quiet.err, !Catch::Contains("ETA"));
+  auto loud = run_circlet("scan --t 6 --modulus 2 --progress -o " + tmp.path + "/p");
+  REQUIRE(loud.status == 0);
+  CHECK_THAT(loud.err, Catch::Contains("circlet scan: 9/9 jobs (100.0%)") && Catch::Contains("jobs/s  ETA 0:00:00"));
+  CHECK(loud.out.empty());
+}
+
 // A CONSTANT row whose constant is an integer is listed as a candidate and
 // compared on exact counts up to n = 10^4: c_t against itself, where the
 // diagonal pairs are identical sequences (k = 1).
