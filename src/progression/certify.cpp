@@ -97,6 +97,17 @@ void add_prime_factors(std::vector<ulong>& ps, const fmpz_t n) {
   fmpz_factor_clear(f);
 }
 
+// Why an UNDECIDED with a varying ρ_p was undecided (certify.hpp, step 5).
+struct OverlapCause {
+  bool varies = false;          // some ρ_p varied (intervals were compared)
+  bool finite_tail = false;     // some Q gave a finite tail bound
+  bool nonfinite_tail = false;  // some Q gave no finite tail bound at this precision
+  bool mathematics = false;     // at the last Q compared: |log(P_1/P_2)| ≤ 2S proved
+  ulong Q = 0;
+};
+
+Certificate certify_pair_at(const ProgressionPair& pair, const CertifyOptions& opt, OverlapCause* cause);
+
 }  // namespace
 
 bool x_proportional(const ProgressionPair& pair, Fmpq* lambda) {
@@ -139,7 +150,11 @@ std::vector<ulong> constant_route_primes(const ProgressionPair& pair, const Fmpq
   return ps;
 }
 
-Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt) {
+namespace {
+
+Certificate certify_pair_at(const ProgressionPair& pair, const CertifyOptions& opt, OverlapCause* cause) {
+  *cause = OverlapCause{};
+  cause->mathematics = true;
   Certificate c;
   c.F = pair.F.family.name();
   c.G = pair.G.family.name();
@@ -264,7 +279,12 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
       c.tail_exact = false;
       cached_tail(c.tail_log, c.tail, c.rank, c.Q, c.q2, prec);
     }
-    if (!arb_is_finite(c.tail_log)) continue;
+    if (!arb_is_finite(c.tail_log)) {
+      cause->nonfinite_tail = true;
+      cause->mathematics = false;
+      continue;
+    }
+    cause->finite_tail = true;
     c.distinguishing_prime = primes[best].p;
     c.classes.assign(2, CertClass{});
     c.modulus_factors.clear();
@@ -296,6 +316,18 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
                       c.classes[k].pinned_product, c.tail, prec);
     }
     c.disjoint = !arb_overlaps(c.classes[0].limit, c.classes[1].limit);
+    if (!c.disjoint) {
+      // Exact-interval test of step 5: |log(P_1/P_2)| ≤ 2S (both sides balls; "≤" only when proved).
+      Fmpq q;
+      fmpq_div(q, c.classes[0].pinned_product, c.classes[1].pinned_product);
+      Arb lr, two_s;
+      arb_set_fmpq(lr, q, prec);
+      arb_log(lr, lr, prec);
+      arb_abs(lr, lr);
+      arb_mul_2exp_si(two_s, c.tail_log, 1);
+      cause->Q = c.Q;
+      if (c.tail_exact || !arb_le(lr, two_s)) cause->mathematics = false;
+    }
     if (c.disjoint) {
       c.verdict = Verdict::NonConvergent;
       c.reason = "rho_" + std::to_string(c.distinguishing_prime) +
@@ -309,6 +341,7 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
       }
       c.disjoint = !arb_overlaps(c.classes[0].limit, c.classes[1].limit);
       if (c.disjoint) return c;
+      cause->mathematics = false;  // disjoint before the margins: precision
     }
   }
   Certificate u;
@@ -321,11 +354,43 @@ Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt)
   u.Q_max = c.Q_max;
   u.provenance = c.provenance;
   u.verdict = Verdict::Undecided;
+  cause->varies = any_varies;
   u.reason = any_varies ? "some rho_p varies, but the limit intervals overlap for every Q <= " +
                               std::to_string(opt.Q_max)
                         : "rho_p is constant on the progression for every p <= " + std::to_string(opt.Q_max) +
                               "; constancy at larger primes is not proved";
   return u;
+}
+
+}  // namespace
+
+Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt) {
+  // Adaptive precision (certify.hpp, step 5): only the decision is repeated; a
+  // higher precision never changes which Q and classes are tried.
+  CertifyOptions o = opt;
+  for (;;) {
+    OverlapCause cause;
+    Certificate c = certify_pair_at(pair, o, &cause);
+    const std::string bits = std::to_string(o.prec) + " bits";
+    if (c.verdict != Verdict::Undecided || !cause.varies) {
+      if (o.prec > opt.prec) c.reason += " (decided at " + bits + "; " + std::to_string(opt.prec) + " bits did not separate the intervals)";
+      return c;
+    }
+    // Mathematics only when every Q was compared with a finite tail bound (a Q
+    // skipped for its tail at this precision might separate at a higher one).
+    if (cause.mathematics) {
+      c.reason += "; cause: mathematics (at every Q compared, up to Q = " + std::to_string(cause.Q) +
+                  ", the exact intervals overlap: |log(P1/P2)| <= 2 S(Q), so more precision cannot separate them)";
+      return c;
+    }
+    if (o.prec >= opt.prec_max) {
+      c.reason += "; cause: precision (the exact intervals would be disjoint" +
+                  std::string(cause.nonfinite_tail ? ", or some Q had no finite tail bound" : "") + ", but " + bits +
+                  " did not separate the balls; the cap is --prec-max " + std::to_string(opt.prec_max) + ")";
+      return c;
+    }
+    o.prec = std::min<slong>(2 * o.prec, opt.prec_max);
+  }
 }
 
 }  // namespace circlet

@@ -31,6 +31,15 @@
 //     are disjoint gives NON-CONVERGENT; C_σ = sqrt(det S_G / det S_F) is
 //     the ratio of the σ_∞ constants π^{r/2}/(Γ(r/2) sqrt(det S)).
 //  4. Otherwise UNDECIDED, saying whether no ρ_p varied or the intervals overlapped.
+//  5. Adaptive precision. When some ρ_p varies but the intervals overlap, the
+//     cause is decided exactly at the last Q tried: the two intervals are
+//     m_k·[e^{−S}, e^{S}] with the same factor C_σ(A/A')^{w−1} in m_1, m_2, so
+//     they overlap as exact intervals iff |log(P_1/P_2)| ≤ 2S (P_k the pinned
+//     products, exact rationals). If that holds (as balls): "cause: mathematics",
+//     more precision cannot help. Otherwise the overlap comes from the working
+//     precision (ball radii, or a tail bound that was not finite), and the
+//     search is repeated at 2·prec, 4·prec, ... ≤ prec_max before UNDECIDED
+//     with "cause: precision".
 #include "progression/certificate.hpp"
 
 namespace circlet {
@@ -39,7 +48,8 @@ struct CertifyOptions {
   ulong Q_max = 47;         // largest prime pinned
   ulong q2 = 20000;         // explicit primes in the tail bound
   long n0 = 1000;           // power-factor bound for n ≥ n0
-  slong prec = 128;
+  slong prec = 128;         // the first working precision
+  slong prec_max = 512;     // adaptive precision: retries at 2·prec, ... up to this (see certify_pair)
 };
 
 Certificate certify_pair(const ProgressionPair& pair, const CertifyOptions& opt);

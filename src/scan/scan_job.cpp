@@ -5,23 +5,42 @@
 #include "progression/ball_io.hpp"
 #include "progression/certificate.hpp"
 #include "progression/verify.hpp"
+#include "core/error.hpp"
 #include "scan/exact_compare.hpp"
+#include "scan/results_db.hpp"
 #include "series/eta_series.hpp"
 
 namespace circlet {
 
 nlohmann::json ScanSettings::header() const {
-  return {{"scan", "c_t vs sc_{2t-1}"},
+  return {{"pair", spec.pair.str()},
           {"t_lo", spec.t_lo},
           {"t_hi", spec.t_hi},
           {"modulus", spec.M},
           {"compare_K", compare_K},
           {"Q_max", certify.Q_max},
           {"prec", certify.prec},
+          {"prec_max", certify.prec_max},
           {"verify", verify}};
 }
 
+ScanSettings scan_settings_from_header(const nlohmann::json& h) {
+  ScanSettings s;
+  s.spec = scan_spec_from_header(h);
+  try {
+    s.compare_K = h.at("compare_K").get<long>();
+    s.certify.Q_max = h.at("Q_max").get<ulong>();
+    s.certify.prec = h.at("prec").get<slong>();
+    s.certify.prec_max = h.at("prec_max").get<slong>();
+    s.verify = h.at("verify").get<bool>();
+  } catch (const nlohmann::json::exception& e) {
+    throw UserError(std::string("malformed scan header: ") + e.what());
+  }
+  return s;
+}
+
 const IntegerSeries& ScanContext::series(const Family& f, long N) {
+  std::lock_guard<std::mutex> lock(mu_);
   auto key = std::make_pair(f.name(), N);
   auto it = cache_.find(key);
   if (it == cache_.end())
@@ -30,14 +49,16 @@ const IntegerSeries& ScanContext::series(const Family& f, long N) {
 }
 
 nlohmann::json run_scan_job(ScanContext& ctx, const ScanJob& job) {
-  const Family F{FamilyKind::Core, job.t}, G{FamilyKind::SelfConjugateCore, 2 * job.t - 1};
+  const Family& F = job.F;
+  const Family& G = job.G;
   nlohmann::json r{{"job", job.index}, {"t", job.t},       {"F", F.name()},      {"G", G.name()},
                    {"A", job.ap.A},    {"B", job.ap.B},    {"A2", job.ap2.A},    {"B2", job.ap2.B}};
-  if (scan_uses_certificates(job.t)) {
+  if (scan_uses_certificates(F.rank())) {
     ProgressionPair pair(F, job.ap, G, job.ap2);
     Certificate c = certify_pair(pair, ctx.settings().certify);
     r["verdict"] = verdict_name(c.verdict);
     r["reason"] = c.reason;
+    r["prec"] = c.prec;
     if (ctx.settings().verify) {
       try {
         VerifyReport v = verify_certificate(certificate_to_json(c));
@@ -56,6 +77,8 @@ nlohmann::json run_scan_job(ScanContext& ctx, const ScanJob& job) {
       r["r2"] = c.classes[1].residue.str();
       r["limit1"] = interval_display(c.classes[0].limit);
       r["limit2"] = interval_display(c.classes[1].limit);
+      r["limit1_ball"] = ball_to_json(c.classes[0].limit);
+      r["limit2_ball"] = ball_to_json(c.classes[1].limit);
     } else if (c.verdict == Verdict::Constant) {
       r["constant"] = c.constant_value.str();
       r["k"] = c.constant_value.str();
