@@ -94,7 +94,15 @@ nlohmann::json run_scan_job(ScanContext& ctx, const ScanJob& job) {
     r["verdict"] = e.whole.relation == Relation::Proportional ? "PROPORTIONAL"
                    : e.whole.relation == Relation::BothVanish ? "BOTH-VANISH"
                                                               : "NOT-PROPORTIONAL";
-    r["reason"] = "exact counts n = 0.." + std::to_string(K) + ": " + e.describe();
+    // Each relation the comparison suggests is proved for all n (or refuted) by the
+    // Sturm bound (src/modform/, docs/MATH.md §8); "exact counts n = 0..K" only when
+    // the comparison suggests no relation.
+    const std::vector<ProvedRelation> rs = prove_exact_comparison(e, F, job.ap, G, job.ap2);
+    if (rs.empty()) {
+      r["reason"] = "exact counts n = 0.." + std::to_string(K) + ": " + e.describe();
+    } else {
+      r["reason"] = describe_proved(rs);  // the relations, each PROVED or REFUTED, in one line
+    }
     if (e.whole.relation == Relation::Proportional) r["k"] = e.whole.k.str();
     nlohmann::json sub = nlohmann::json::array();
     for (const auto& s : e.sub) sub.push_back({{"p", s.p}, {"j", s.j}, {"k", s.k.str()}});

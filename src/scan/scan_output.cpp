@@ -193,7 +193,7 @@ std::string scan_summary_text(const nlohmann::json& header, const std::string& s
     more("candidates_total", s["candidates"]);
   }
   if (!s["proportional_pairs"].empty() || !s["proportional_subprogressions"].empty()) {
-    o << "exact proportionality (weight <= 2, every tested n):\n";
+    o << "exact relations (weight <= 2; PROVED/REFUTED by the Sturm bound, docs/MATH.md §8):\n";
     for (const auto& c : s["proportional_pairs"]) o << "  " << c["pair"].get<std::string>() << ": k = " << c["k"].get<std::string>() << "\n";
     more("proportional_pairs_total", s["proportional_pairs"]);
     for (const auto& c : s["proportional_subprogressions"])
