@@ -64,6 +64,24 @@ std::string make_fixtures() {
   auto tampered = j;
   tampered["classes"][0]["local_factors"][0]["beta_F"] = "3/4";
   std::ofstream(dir + "/tampered.json") << tampered.dump(2);
+  // Malformed certificates (docs/certificate-format.md §1): the reader refuses them before the digest.
+  std::string dup = j.dump();
+  dup.insert(dup.size() - 1, ",\"Q\":5");
+  std::ofstream(dir + "/dupkey.json") << dup;
+  auto edit = [&](const std::string& name, auto&& f) {
+    auto k = j;
+    f(k);
+    std::ofstream(dir + "/" + name) << k.dump(2);
+  };
+  edit("eminus1.json", [](nlohmann::json& k) { k["modulus_factors"][0]["e"] = -1; });
+  edit("ebig.json", [](nlohmann::json& k) { k["modulus_factors"][0]["e"] = 1000000000; });
+  edit("qhuge.json", [](nlohmann::json& k) { k["Q"] = 1ULL << 62; });
+  edit("qmaxhuge.json", [](nlohmann::json& k) { k["Q_max"] = 1ULL << 62; });
+  edit("ballexp.json", [](nlohmann::json& k) { k["classes"][0]["limit_interval"]["rad"] = "1*2^1000000000"; });
+  edit("unknown.json", [](nlohmann::json& k) { k["reason"] = "x"; });
+  edit("float.json", [](nlohmann::json& k) { k["precision_bits"] = 128.5; });
+  std::ofstream(dir + "/deep.json") << std::string(100000, '[') << std::string(100000, ']');
+  REQUIRE(run_circlet("certify c9 sc17 --ap 34,25 --ap2 102,73 -o " + dir + "/slowcount.json").status == 0);
   REQUIRE(run_circlet("scan --t 6..6 --modulus 2 -o " + dir + "/scan6").status == 0);
   return dir;
 }
