@@ -283,3 +283,17 @@ TEST_CASE("scan compares any two families of equal weight", "[scan][pair]") {
     CHECK_THAT(c.err, Catch::Contains("--compare-to must be at least 2"));
   }
 }
+
+TEST_CASE("the weight 3/2 scan reports the c4/sc7 relation proved by the Sturm bound", "[scan][prove]") {
+  // c_4(7n+2) = 2 sc_7(8n+1) except when n ≡ 4 (mod 7) (tests/modform_proof.cpp proves it on its
+  // own; here the scan must find it from its exact comparison and write the proof's verdict).
+  TempDir tmp;
+  REQUIRE(run("scan --t 4..4 --modulus 8 -o " + tmp.path + "/s4") == 0);
+  SqliteDb db(tmp.path + "/s4/scan.db", true);
+  SqliteStatement s(db, "SELECT reason FROM pairs WHERE A = 7 AND B = 2 AND A2 = 8 AND B2 = 1");
+  REQUIRE(s.step());
+  CHECK(s.text_at(0) == "PROVED: c4(7n+2) - 2*sc7(8n+1) = 0 for n mod 7 != 4");
+  const std::string text = slurp(tmp.path + "/s4/summary.txt");
+  CHECK(text.find("c4(7n+2) vs sc7(8n+1): PROVED: c4(7n+2) - 2*sc7(8n+1) = 0 for n mod 7 != 4") != std::string::npos);
+  CHECK(text.find("exact counts n = 0..") == std::string::npos);  // the pair's reason is the proof, not a check
+}
