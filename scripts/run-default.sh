@@ -3,7 +3,7 @@
 # and write under results/default/, every file with its provenance (program
 # version, command line, date):
 #   counts      c7_counts.csv, sc13_counts.csv            (circlet count)
-#   scan        scan/ (scan.csv, scan.json, summary.txt)  (circlet scan, t = 6..8, modulus 4)
+#   scan        scan/ (scan.db, summary.txt, summary.json, scan.csv)  (circlet scan, t = 6..8, modulus 4)
 #   certificates cert_*.json, each re-checked by circlet verify
 #   tables      ratio_*.csv, remainder_*.csv, arcs_*.csv, main_*.json
 #   plots       ratio_*.png, remainder_*.png, relerr_*.png, arcs_*.png, scan_heatmap.png (scripts/plot.py; caption = provenance)
