@@ -587,7 +587,10 @@ def check_nonconvergent(c, F, G, w, aps, prec, say):
         tail = (exp_bounds(-S)[0], exp_bounds(S)[1])       # contains the truth
         Sm = (lb[0] + lb[1]) / 2                             # the program's S
         near = (exp_bounds(-Sm)[0], exp_bounds(Sm)[1])
-    check_ball(tl["interval"], "/tail/interval", prec, tail, near)
+    ti = check_ball(tl["interval"], "/tail/interval", prec, tail, near)
+    if route != "proportional":  # the interval is that of the stored S: e^-Sm <= e^-Sm hi bound, etc.
+        need(ti[0] <= exp_bounds(-Sm)[1] and exp_bounds(Sm)[0] <= ti[1], "/tail/interval",
+             "is not [e^-S, e^S] for the stored /tail/log_bound")
     # --- modulus M = prod_{q <= Q} q^e_q (docs/MATH.md §7.1)
     mf, cl = c["modulus_factors"], c["classes"]
     need(isinstance(mf, list) and len(mf) == len(ps), "/modulus_factors",

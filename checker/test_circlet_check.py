@@ -343,6 +343,10 @@ class Certificates(unittest.TestCase):
             (nc, setv(["modulus_factors", 0, "e"], 4), "/modulus"),
             (nc, setv(["tail", "log_bound", "mid"], "1*2^-3"), "/tail/log_bound"),
             (nc, setv(["tail", "log_bound", "rad"], "1*2^-10"), "/tail/log_bound"),
+            # a doubled S is still an upper bound, but the stored interval is not its [e^-S, e^S]
+            (nc, lambda c: setv(["tail", "log_bound", "mid"], "%s*2^%d" % (
+                c["tail"]["log_bound"]["mid"].split("*2^")[0],
+                int(c["tail"]["log_bound"]["mid"].split("*2^")[1]) + 1))(c), "/tail/interval"),
             (nc, setv(["tail", "interval", "rad"], "1*2^-3"), "/tail/interval"),
             (nc, setv(["tail", "route"], "proportional"), "/tail"),
             (nc, setv(["tail", "explicit_primes_up_to"], 19999), "/tail/explicit_primes_up_to"),
