@@ -582,7 +582,8 @@ def check_nonconvergent(c, F, G, w, aps, prec, say):
         # of [e^-S, e^S] below, computed from the checker's own S.
         need(S <= lb[1], "/tail/log_bound",
              "below the checker's own bound S = %.17g" % float(S))
-        need(lb[1] - lb[0] <= (abs(lb[1]) + 1) / 2 ** 39, "/tail/log_bound", "ball not tight")
+        need(0 < lb[1] - lb[0] <= (abs(lb[1]) + 1) / 2 ** 39, "/tail/log_bound",
+             "ball not tight, or of radius 0 (S, a sum of logarithms, is computed, never exact)")
         say("tail: own S <= %.17g, certificate %.17g" % (float(S), float(lb[0])))
         tail = (exp_bounds(-S)[0], exp_bounds(S)[1])       # contains the truth
         Sm = (lb[0] + lb[1]) / 2                             # the program's S

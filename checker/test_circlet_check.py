@@ -343,6 +343,7 @@ class Certificates(unittest.TestCase):
             (nc, setv(["modulus_factors", 0, "e"], 4), "/modulus"),
             (nc, setv(["tail", "log_bound", "mid"], "1*2^-3"), "/tail/log_bound"),
             (nc, setv(["tail", "log_bound", "rad"], "1*2^-10"), "/tail/log_bound"),
+            (nc, setv(["tail", "log_bound", "rad"], "0"), "/tail/log_bound"),
             # a doubled S is still an upper bound, but the stored interval is not its [e^-S, e^S]
             (nc, lambda c: setv(["tail", "log_bound", "mid"], "%s*2^%d" % (
                 c["tail"]["log_bound"]["mid"].split("*2^")[0],
