@@ -31,7 +31,7 @@ void ntl_message(const char* msg) {
 
 // FLINT calls its abort handler after printing its own message; allocation
 // failures are by far the common cause of a FLINT abort in this program.
-[[noreturn]] void flint_abort_handler() {
+FLINT_NORETURN void flint_abort_handler() {  // FLINT_NORETURN: clang needs the GNU attribute in the type
   write_stderr("circlet: error: out of memory or a fatal FLINT error (see the message above)\n");
   ::_exit(2);
 }
