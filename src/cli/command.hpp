@@ -6,6 +6,8 @@
 #include <string>
 #include <vector>
 
+#include "core/progress_line.hpp"
+
 namespace circlet::cli {
 
 struct CommandSpec {
@@ -22,6 +24,6 @@ struct Registration {
 };
 
 /// True when stderr is a terminal (progress indications are shown only then).
-bool stderr_is_terminal();
+inline bool stderr_is_terminal() { return circlet::stderr_is_a_terminal(); }
 
 }  // namespace circlet::cli

@@ -19,8 +19,6 @@ std::vector<CommandSpec>& registry() {
   return r;
 }
 
-bool stderr_is_terminal() { return ::isatty(STDERR_FILENO) == 1; }
-
 namespace {
 
 // The value names shown in --help (instead of CLI11's "TEXT": every option is

@@ -74,30 +74,30 @@ std::string FormSpace::str() const {
   return "M_" + k + "(" + g + ", " + character_str() + ")";
 }
 
-Fmpz index_gamma0(long N) {
+namespace {
+// Π_{p^e || N} first(p) · p^{later·(e−1)}: the indices of Γ0(N) and Γ1(N) are both of this form.
+Fmpz multiplicative_index(long N, long (*first)(long), int later) {
   CIRCLET_ASSERT(N >= 1, "level must be positive");
   Fmpz r(1);
   long n = N;
   for (long p : prime_factors(N)) {
     long e = 0;
     while (n % p == 0) { n /= p; ++e; }
-    fmpz_mul_si(r, r, p + 1);
-    for (long i = 1; i < e; ++i) fmpz_mul_si(r, r, p);
+    fmpz_mul_si(r, r, first(p));
+    for (long i = 0; i < later * (e - 1); ++i) fmpz_mul_si(r, r, p);
   }
   return r;
 }
+}  // namespace
 
+// [SL2(Z):Γ0(N)] = N Π_{p|N} (1 + 1/p) = Π p^{e−1}(p + 1).
+Fmpz index_gamma0(long N) {
+  return multiplicative_index(N, [](long p) { return p + 1; }, 1);
+}
+
+// N² Π_{p|N} (1 − 1/p²) = Π p^{2(e−1)}(p² − 1) (the values of form_space.hpp, also at N = 1, 2).
 Fmpz index_gamma1(long N) {
-  CIRCLET_ASSERT(N >= 1, "level must be positive");
-  Fmpz r(1);
-  long n = N;
-  for (long p : prime_factors(N)) {
-    long e = 0;
-    while (n % p == 0) { n /= p; ++e; }
-    fmpz_mul_si(r, r, p * p - 1);
-    for (long i = 1; i < e; ++i) { fmpz_mul_si(r, r, p); fmpz_mul_si(r, r, p); }
-  }
-  return r;
+  return multiplicative_index(N, [](long p) { return p * p - 1; }, 2);
 }
 
 Fmpz group_index_factor(const FormSpace& V) {
