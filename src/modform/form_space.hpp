@@ -21,8 +21,8 @@
 //  [Kob]  N. Koblitz, "Introduction to elliptic curves and modular forms", GTM 97,
 //         Prop. III.3.17: twist by a primitive ψ mod M lands in M_k(Γ0(N M²), χψ²)
 //         (statement read in the Sage ticket #6837 that quotes it).
-//  [Stu]  J. Sturm, "On the congruence of modular forms", Lecture Notes in Math. 1240
-//         (1987): if f ∈ M_k(Γ) (Γ a congruence subgroup) has integral coefficients and
+//  [Stu]  J. Sturm, in: Number Theory (New York 1984-85), Lecture Notes in Math. 1240
+//         (1987; quoted from memory): if f ∈ M_k(Γ) (Γ a congruence subgroup) has integral coefficients and
 //         a(m) ≡ 0 (mod ℓ) for m ≤ (k/12)[SL2(Z):Γ], then f ≡ 0 (mod ℓ); likewise "= 0".
 #include <string>
 #include <vector>
