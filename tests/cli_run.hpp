@@ -25,6 +25,18 @@ inline std::string slurp_file(const std::string& path) {
 }
 
 /// Runs `env circlet args` through /bin/sh (args is shell text: quote as needed).
+/// Exit status of a shell command (-1 when it did not exit normally).
+inline int shell_status(const std::string& cmd) {
+  const int rc = std::system(cmd.c_str());
+  return WIFEXITED(rc) ? WEXITSTATUS(rc) : -1;
+}
+
+/// Whether /usr/bin/python3 has pandas (tests of the Python tools skip with a WARN otherwise).
+inline bool have_pandas() {
+  static const bool ok = shell_status("/usr/bin/python3 -c 'import pandas' >/dev/null 2>&1") == 0;
+  return ok;
+}
+
 inline CliRun run_circlet(const std::string& args, const std::string& env = "") {
   static std::atomic<int> counter{0};
   const std::string base = "/tmp/circlet_cli_" + std::to_string(::getpid()) + "_" + std::to_string(counter++);

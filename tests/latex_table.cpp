@@ -15,15 +15,8 @@ const std::string kPython = "/usr/bin/python3";
 const std::string kSource = CIRCLET_SOURCE_DIR;
 const std::string kScript = kPython + " " + kSource + "/scripts/latex_table.py";
 
-int sh(const std::string& cmd) {
-  const int rc = std::system(cmd.c_str());
-  return WIFEXITED(rc) ? WEXITSTATUS(rc) : -1;
-}
-
-bool have_pandas() {
-  static const bool ok = sh(kPython + " -c 'import pandas' >/dev/null 2>&1") == 0;
-  return ok;
-}
+int sh(const std::string& cmd) { return circlet::testing::shell_status(cmd); }
+using circlet::testing::have_pandas;
 
 /// Output of latex_table.py ARGS (standard output), status in *rc.
 std::string table(const std::string& args, int* rc) {
