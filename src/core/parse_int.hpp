@@ -1,10 +1,14 @@
 #pragma once
 // The one parser for integers the user types (every option and every number
 // inside a family name, progression or range). The rule, the same everywhere:
-//   * decimal digits only, optionally one leading '-' (which is then refused
+//   * decimal digits, optionally one leading '-' (which is then refused
 //     with "must be non-negative" where the value must be ≥ 0);
-//   * no sign '+', no spaces before or after, no "0x"/"0o"/"0b" prefixes, no
-//     exponent, no digit separators; the empty string is an error;
+//   * or power notation: decimal powers B^E and decimal numbers joined by '+'
+//     and '-', e.g. 10^12, 2^64-1, 10^6+3 (exact; a negative total is refused
+//     as above, a term beyond the digit limit before it is computed);
+//   * no leading sign '+', no spaces before or after, no "0x"/"0o"/"0b"
+//     prefixes, no "1e6" exponent, no digit separators; the empty string is an
+//     error;
 //   * leading zeros are allowed and mean nothing: "010" is ten (never octal).
 // Values beyond the option's maximum (or beyond 64 bits) are refused with
 // "is too large (at most M)".
