@@ -13,6 +13,7 @@
 
 #include "cli_run.hpp"
 #include "scan/results_db.hpp"
+#include "scan/scan_job.hpp"
 #include "scan/sqlite.hpp"
 
 using namespace circlet;
@@ -296,4 +297,27 @@ TEST_CASE("the weight 3/2 scan reports the c4/sc7 relation proved by the Sturm b
   const std::string text = slurp(tmp.path + "/s4/summary.txt");
   CHECK(text.find("c4(7n+2) vs sc7(8n+1): PROVED: c4(7n+2) - 2*sc7(8n+1) = 0 for n mod 7 != 4") != std::string::npos);
   CHECK(text.find("exact counts n = 0..") == std::string::npos);  // the pair's reason is the proof, not a check
+}
+
+TEST_CASE("scan --verify re-checks a certificate whose counting verify alone would refuse", "[scan][verify]") {
+  // c9(22n+15) vs sc17(18n+3): verify estimates 14.5 s for counting β_11 of c9
+  // modulo 11^5 and refuses it without --no-time-limit; the real count takes
+  // about a second. Inside a scan the limit does not apply.
+  ScanSettings s;
+  s.spec.t_lo = s.spec.t_hi = 9;
+  s.spec.M = 24;
+  s.verify = true;
+  ScanContext ctx(s);
+  ScanJob job;
+  job.index = 0;
+  job.t = 9;
+  job.F = Family::parse("c9");
+  job.G = Family::parse("sc17");
+  job.ap = Progression{22, 15};
+  job.ap2 = Progression{18, 3};
+  const nlohmann::json row = run_scan_job(ctx, job);
+  CHECK(row["verdict"] == "NON-CONVERGENT");
+  INFO(row.dump());
+  CHECK(row["verified"] == true);
+  CHECK_FALSE(row.contains("verify_failure"));
 }
