@@ -9,7 +9,7 @@ packages=(
   build-essential cmake pkg-config
   libflint-dev libflint-arb-dev libntl-dev libmpfr-dev libgmp-dev
   libeigen3-dev catch2 libcli11-dev nlohmann-json3-dev libfmt-dev
-  pari-gp clang-14 libclang-rt-14-dev ccache libsqlite3-dev libssl-dev sqlite3 time
+  pari-gp clang-14 libclang-rt-14-dev ccache libsqlite3-dev libssl-dev sqlite3 time strace
   python3-matplotlib python3-pandas python3-numpy
   jupyter-notebook python3-nbconvert python3-ipykernel
 )
