@@ -118,3 +118,26 @@ TEST_CASE("remainder caps the number of rows", "[cli][remainder][errors]") {
   CHECK(a.status == 2);
   CHECK(a.err == "circlet: error: --to: at most 1000001 rows (--to 1000000); thin the range out with --ap A,B\n");
 }
+
+TEST_CASE("arcs at a huge n: the class-number refusal names an option arcs has, factoring is guarded", "[cli][arcs][errors]") {
+  // c4 at n = 10^18: H(32·10^18 + 20) needs about 3.3·10^9 sieve steps, above the default budget.
+  Run a = run("arcs c4 --at 10^18 --upto 2");
+  CHECK(a.status == 2);
+  CHECK(a.err.find("allow it with --class-number-steps") != string::npos);
+  // ... and arcs accepts that option (a small budget is refused the same way, a larger one is not an unknown option).
+  Run b = run("arcs c4 --at 10^18 --upto 2 --class-number-steps 1000");
+  CHECK(b.status == 2);
+  CHECK(b.err.find("allow it with --class-number-steps") != string::npos);
+  // X = 10^40 + 7 + Δ has a 42-digit composite cofactor: refused without --allow-large ...
+  Run c = run("arcs c6 --at 10^40+7 --upto 2");
+  CHECK(c.status == 2);
+  CHECK(c.err.find("--allow-large") != string::npos);
+  // ... and with it, factored in a private child; the terms agree with the main term's enclosure.
+  Run d = run("--allow-large arcs c6 --at 10^40+7 --upto 2 --factor-timeout 120");
+  CHECK(d.status == 0);
+  auto l = split_lines(circlet::testing::csv_body(d.out));
+  CHECK(l.size() == 3);
+  Run e = run("arcs c6 --at 5 --factor-timeout 0");
+  CHECK(e.status == 2);
+  CHECK(e.err == "circlet: error: --factor-timeout must be a positive number of seconds\n");
+}

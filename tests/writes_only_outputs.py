@@ -59,6 +59,7 @@ def main():
         ["--allow-large", "main", "c6", "--at", "10^40+7", "--factor-timeout", "2"],
         ["main", "c7", "--to", "300", "-o", f"{out}/main.csv"],
         ["arcs", "c9", "--at", "1000", "--upto", "8", "-o", f"{out}/arcs.csv"],
+        ["--allow-large", "arcs", "c6", "--at", "10^40+7", "--upto", "2", "-o", f"{out}/arcs-big.csv"],
         ["remainder", "c9", "--to", "200", "-o", f"{out}/rem.csv"],
         ["ratio", "c7", "sc13", "--ap", "2,1", "--ap2", "3,1", "--to", "20", "-o", f"{out}/ratio.csv"],
         ["certify", "c7", "sc13", "--ap", "2,1", "--ap2", "3,1", "-o", f"{out}/cert.json"],
