@@ -3,6 +3,7 @@
 #include <flint/fmpq.h>
 #include <openssl/evp.h>
 
+#include <algorithm>
 #include <map>
 #include <numeric>
 
@@ -286,39 +287,208 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
   nlohmann::json th = nlohmann::json::array();
   for (const char* s : kTheorems) th.push_back(s);
   cert["theorems"] = th;
-  cert["provenance"] = Provenance::now(command_line()).to_json();
+  {
+    // Exactly the four fields verify checks (as in a progression certificate): the
+    // build's commit and library versions describe the program, not the proof.
+    const nlohmann::json pv = Provenance::now(command_line()).to_json();
+    cert["provenance"] = {{"program", pv["program"]}, {"version", pv["version"]}, {"command", pv["command"]}, {"date", pv["date"]}};
+  }
   cert["digest"] = proof_certificate_digest(cert);
   res.certificate = cert;
   return res;
 }
 
+namespace {
+
+// POSIX shell words of a recorded command line, as set_command_line() quotes them
+// ('…' with '\'' for a quote; unquoted words have no special characters).
+// Returns false on an unterminated quote or a character an unquoted word cannot hold.
+bool shell_words(const std::string& s, std::vector<std::string>& out) {
+  out.clear();
+  size_t i = 0;
+  while (i < s.size()) {
+    if (s[i] == ' ') {
+      ++i;
+      continue;
+    }
+    std::string w;
+    while (i < s.size() && s[i] != ' ') {
+      if (s[i] == '\'') {
+        size_t j = s.find('\'', i + 1);
+        if (j == std::string::npos) return false;
+        w += s.substr(i + 1, j - i - 1);
+        i = j + 1;
+      } else if (s[i] == '\\' && i + 1 < s.size() && s[i + 1] == '\'') {
+        w += '\'';
+        i += 2;
+      } else {
+        if (std::string("\t\n\"$\\*?;&|<>()").find(s[i]) != std::string::npos) return false;
+        w += s[i++];
+      }
+    }
+    out.push_back(w);
+  }
+  return true;
+}
+
+bool is_digits(const std::string& s) { return !s.empty() && s.find_first_not_of("0123456789") == std::string::npos; }
+
+// "YYYY-MM-DDTHH:MM:SSZ" with each field in range (days by month; February 29 in leap years).
+bool is_utc_date(const std::string& d) {
+  if (d.size() != 20 || d[4] != '-' || d[7] != '-' || d[10] != 'T' || d[13] != ':' || d[16] != ':' || d[19] != 'Z')
+    return false;
+  for (int k : {0, 1, 2, 3, 5, 6, 8, 9, 11, 12, 14, 15, 17, 18})
+    if (d[k] < '0' || d[k] > '9') return false;
+  const int y = std::stoi(d.substr(0, 4)), mo = std::stoi(d.substr(5, 2)), da = std::stoi(d.substr(8, 2));
+  const int h = std::stoi(d.substr(11, 2)), mi = std::stoi(d.substr(14, 2)), se = std::stoi(d.substr(17, 2));
+  static const int days[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+  if (mo < 1 || mo > 12 || da < 1 || h > 23 || mi > 59 || se > 60) return false;
+  const bool leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
+  return da <= days[mo - 1] + (mo == 2 && leap ? 1 : 0);
+}
+
+// The value of option `name` in words[2..] ("--t 2..12" or "--t=2..12"), or "" if absent.
+std::string option_value(const std::vector<std::string>& w, const std::string& name) {
+  for (size_t i = 2; i < w.size(); ++i) {
+    if (w[i] == name && i + 1 < w.size()) return w[i + 1];
+    if (w[i].rfind(name + "=", 0) == 0) return w[i].substr(name.size() + 1);
+  }
+  return "";
+}
+
+// provenance.command must be a circlet command that writes this relation's proof:
+// `circlet prove RELATION …` with RELATION parsing to the same relation, or
+// `circlet congruences …` for a one-term congruence (or vanishing) whose t, A and ℓ
+// lie in the command's --t, --amax, --lmax (defaults 2..12, 50, 13).
+std::string check_provenance_command(const std::string& cmd, const LinearRelation& rel) {
+  std::vector<std::string> w;
+  if (!shell_words(cmd, w)) return "not a command line as circlet records it";
+  if (w.size() < 2 || w[0] != "circlet") return "does not start with 'circlet'";
+  if (w[1] == "prove") {
+    std::vector<std::string> pos;
+    for (size_t i = 2; i < w.size(); ++i) {
+      if (w[i] == "-o" || w[i] == "--output") {
+        ++i;
+        continue;
+      }
+      if (w[i].rfind("-", 0) == 0) return "unknown option " + w[i] + " of circlet prove";
+      pos.push_back(w[i]);
+    }
+    if (pos.size() != 1) return "circlet prove takes one relation";
+    LinearRelation r2;
+    try {
+      r2 = parse_relation(pos[0]);
+    } catch (const std::exception&) {
+      return "the relation of the command does not parse";
+    }
+    if (r2.str() != rel.str()) return "the command proves '" + r2.str() + "', not this relation";
+    return "";
+  }
+  if (w[1] == "congruences") {
+    if (rel.terms.size() != 1 || rel.restricted) return "circlet congruences writes one-term relations only";
+    const RelationTerm& t = rel.terms[0];
+    long tlo = 2, thi = 12, amax = 50, lmax = 13;
+    const std::string tv = option_value(w, "--t"), av = option_value(w, "--amax"), lv = option_value(w, "--lmax");
+    try {
+      if (!tv.empty()) {
+        const size_t dots = tv.find("..");
+        if (dots == std::string::npos) {
+          if (!is_digits(tv)) return "--t is not a range";
+          tlo = thi = std::stol(tv);
+        } else {
+          if (!is_digits(tv.substr(0, dots)) || !is_digits(tv.substr(dots + 2))) return "--t is not a range";
+          tlo = std::stol(tv.substr(0, dots));
+          thi = std::stol(tv.substr(dots + 2));
+        }
+      }
+      if (!av.empty()) {
+        if (!is_digits(av)) return "--amax is not a number";
+        amax = std::stol(av);
+      }
+      if (!lv.empty()) {
+        if (!is_digits(lv)) return "--lmax is not a number";
+        lmax = std::stol(lv);
+      }
+    } catch (const std::exception&) {
+      return "an option value is out of range";
+    }
+    const std::string fam = t.family.name();
+    const long tt = std::stol(fam.substr(fam[0] == 's' ? 2 : 1));
+    if (tt < tlo || tt > thi) return "t = " + std::to_string(tt) + " is outside the command's --t";
+    if (t.A > amax) return "A = " + std::to_string(t.A) + " exceeds the command's --amax";
+    if (!fmpz_is_zero(rel.modulus)) {
+      // the modulus is ℓ^k: some prime ℓ <= --lmax divides it
+      bool small_prime = false;
+      for (long p = 2; p <= lmax && !small_prime; ++p) small_prime = fmpz_divisible_si(rel.modulus, p);
+      if (!small_prime) return "the prime of the modulus exceeds the command's --lmax";
+    }
+    return "";
+  }
+  return "'" + w[1] + "' does not write proof certificates (prove, congruences do)";
+}
+
+}  // namespace
+
 ProofVerifyReport verify_proof_certificate(const nlohmann::json& cert) {
   ProofVerifyReport r;
   try {
     if (!cert.is_object() || !cert.contains("format") || cert["format"] != kProofCertificateFormat) {
-      r.failures.push_back("not a proof certificate (format)");
+      r.failures.push_back("/format: not a proof certificate");
       return r;
     }
-    if (!cert.contains("digest") || !cert["digest"].is_string()) {
-      r.failures.push_back("no digest");
+    // Exactly the keys the prover writes (docs/proof-certificate-format.md): an unknown
+    // or a missing field is rejected by name before anything else.
+    static const std::vector<std::string> always = {"alignment", "bound_rule", "checked", "combination_chain", "digest",
+                                                    "format", "index", "modulus", "provenance", "reason",
+                                                    "relation", "space", "sturm_bound", "terms", "theorems", "verdict"};
+    for (auto it = cert.begin(); it != cert.end(); ++it)
+      if (std::find(always.begin(), always.end(), it.key()) == always.end() && it.key() != "counterexample")
+        r.failures.push_back("/" + it.key() + ": unknown field");
+    for (const auto& k : always)
+      if (!cert.contains(k)) r.failures.push_back("/" + k + ": missing field");
+    if (!r.failures.empty()) return r;
+    if (!cert["digest"].is_string()) {
+      r.failures.push_back("/digest: not a string");
     } else if (cert["digest"].get<std::string>() != proof_certificate_digest(cert)) {
-      r.failures.push_back("digest: the certificate content was changed after it was written");
+      r.failures.push_back("/digest: the certificate content was changed after it was written");
     } else {
       r.checked.push_back("digest of the certificate content");
     }
-    if (!cert.contains("relation") || !cert["relation"].is_string()) {
-      r.failures.push_back("no relation text");
+    if (!cert["relation"].is_string()) {
+      r.failures.push_back("/relation: not a string");
       return r;
     }
     LinearRelation rel = parse_relation(cert["relation"].get<std::string>());
-    r.checked.push_back("relation parses: " + rel.str());
+    if (rel.str() != cert["relation"].get<std::string>())
+      r.failures.push_back("/relation: not in the canonical spelling '" + rel.str() + "'");
+    else
+      r.checked.push_back("relation parses: " + rel.str());
+    // Provenance: exactly program, version, date, command; the command is one that
+    // writes this relation's proof. (Who ran it, and when, cannot be re-derived.)
+    const nlohmann::json& pv = cert["provenance"];
+    bool pv_ok = pv.is_object() && pv.size() == 4;
+    for (const char* k : {"program", "version", "date", "command"}) pv_ok = pv_ok && pv.contains(k) && pv[k].is_string();
+    if (!pv_ok) {
+      r.failures.push_back("/provenance: must hold exactly the strings program, version, date, command");
+    } else {
+      if (pv["program"] != "circlet") r.failures.push_back("/provenance/program: not 'circlet'");
+      if (pv["version"] != kVersion)
+        r.failures.push_back(std::string("/provenance/version: not the version of this verifier (") + kVersion +
+                             "); re-run the proof with this version");
+      if (!is_utc_date(pv["date"].get<std::string>())) r.failures.push_back("/provenance/date: not a UTC date YYYY-MM-DDTHH:MM:SSZ");
+      const std::string why = check_provenance_command(pv["command"].get<std::string>(), rel);
+      if (!why.empty())
+        r.failures.push_back("/provenance/command: " + why);
+      else
+        r.checked.push_back("provenance.command writes this relation");
+    }
     ProofResult fresh = prove_relation(rel);
     const nlohmann::json& f = fresh.certificate;
     for (const char* key : {"modulus", "alignment", "terms", "combination_chain", "space", "index", "sturm_bound",
                             "bound_rule", "checked", "verdict", "reason", "counterexample", "theorems"}) {
       bool in_cert = cert.contains(key), in_fresh = f.contains(key);
       if (in_cert != in_fresh || (in_cert && cert[key] != f[key]))
-        r.failures.push_back(std::string(key) + ": recorded value differs from the recomputation");
+        r.failures.push_back(std::string("/") + key + ": recorded value differs from the recomputation");
       else if (in_cert)
         r.checked.push_back(std::string(key) + " recomputed");
     }
