@@ -34,7 +34,11 @@ checker/circlet_check.py exists (the independent checker), it is run on every
 mutation too and must reject it (non-zero exit, no Python traceback), and accept
 every unedited certificate.
 
-Usage: tests/certificate_mutations.py [--circlet BUILD/circlet] [--jobs 2] [--limit N] [--pycheck FILE]
+With --proofs the same edits are applied to the proof certificates of `circlet prove`
+(results/proofs, a sample of results/congruences/certificates): verify must exit 1 or 2
+and name the top-level field it found changed, checker/proof_check.py must reject.
+
+Usage: tests/certificate_mutations.py [--circlet BUILD/circlet] [--jobs 2] [--limit N] [--pycheck FILE] [--proofs]
 Exit status 0 when every mutation was rejected as required.
 Uses the standard library only.
 """
@@ -269,9 +273,14 @@ def text_mutations(cert):
             else:
                 text = dup
             out.append(("duplicate key " + k, pointer(path + (k,)), text))
-    out.append(("float precision_bits", "/precision_bits", base.replace('"precision_bits": %d' % cert["precision_bits"],
-                                                                         '"precision_bits": %d.0' % cert["precision_bits"])))
-    out.append(("exponent-notation Q_max", "/Q_max", base.replace('"Q_max": %d' % cert["Q_max"], '"Q_max": 4.7e1')))
+    if "precision_bits" in cert:
+        out.append(("float precision_bits", "/precision_bits", base.replace('"precision_bits": %d' % cert["precision_bits"],
+                                                                             '"precision_bits": %d.0' % cert["precision_bits"])))
+    if "Q_max" in cert:
+        out.append(("exponent-notation Q_max", "/Q_max", base.replace('"Q_max": %d' % cert["Q_max"], '"Q_max": 4.7e1')))
+    if "checked" in cert:  # a proof certificate
+        n_to = cert["checked"]["n_to"]
+        out.append(("float n_to", "/checked/n_to", base.replace('"n_to": %d' % n_to, '"n_to": %d.0' % n_to)))
     out.append(("deep nesting", "", "[" * 100000 + "]" * 100000))
     out.append(("truncated", "", base[: len(base) // 2]))
     out.append(("trailing data", "", base + "\n{}"))
@@ -300,12 +309,26 @@ def main():
     ap.add_argument("--limit", type=int, default=0, help="at most this many mutations per certificate (0: all)")
     ap.add_argument("--stride", type=int, default=1,
                     help="keep every STRIDE-th mutation of each certificate, spread over all its fields (1: all)")
-    ap.add_argument("--pycheck", default=os.path.join(ROOT, "checker", "circlet_check.py"),
-                    help="the independent checker, run too when the file exists")
+    ap.add_argument("--pycheck", default=None,
+                    help="the independent checker, run too when the file exists (default: checker/circlet_check.py, "
+                         "or checker/proof_check.py with --proofs)")
+    ap.add_argument("--proofs", action="store_true",
+                    help="mutate the proof certificates of `circlet prove` (results/proofs and a sample of "
+                         "results/congruences/certificates) instead of the certificates of `circlet certify`")
     args = ap.parse_args()
-    files = sorted(set(glob.glob(os.path.join(ROOT, "results", "default", "cert_*.json")) +
-                       glob.glob(os.path.join(ROOT, "results", "scan_t6-10_M8", "examples", "cert_*.json")) +
-                       glob.glob(os.path.join(ROOT, "fuzz", "corpus", "certificate", "cert_*.json"))))
+    if args.pycheck is None:
+        args.pycheck = os.path.join(ROOT, "checker", "proof_check.py" if args.proofs else "circlet_check.py")
+    if args.proofs:
+        # Every committed proof, and from the congruence search one certificate of each kind
+        # (a vanishing, a congruence mod a prime, mod a prime power; c_t and sc_t).
+        cong = os.path.join(ROOT, "results", "congruences", "certificates")
+        files = sorted(glob.glob(os.path.join(ROOT, "results", "proofs", "*.json")) +
+                       [os.path.join(cong, f) for f in ("sc3_47n+44_zero.json", "c11_11n+6_mod11^1.json",
+                                                        "c10_25n+24_mod5^2.json", "c2_23n+12_zero.json")])
+    else:
+        files = sorted(set(glob.glob(os.path.join(ROOT, "results", "default", "cert_*.json")) +
+                           glob.glob(os.path.join(ROOT, "results", "scan_t6-10_M8", "examples", "cert_*.json")) +
+                           glob.glob(os.path.join(ROOT, "fuzz", "corpus", "certificate", "cert_*.json"))))
     # One certificate per distinct content (the same pair certified twice differs only in the date).
     certs, seen = [], set()
     for f in files:
@@ -361,6 +384,13 @@ def main():
                         why = "ACCEPTED"
                     elif rc not in (1, 2):
                         why = "exit %s (crash or internal error)" % rc
+                    elif args.proofs:
+                        # A proof certificate's fields are compared whole with a recomputation
+                        # (docs/proof-certificate-format.md): the message names the top-level field.
+                        top = "/" + ptr.split("/")[1] if ptr.count("/") >= 1 and ptr != "/" else ""
+                        named = top in out or ("digest kept" in label and "/digest" in out)
+                        if kind == "format" and top and not named and rc != 2:
+                            why = "message does not name %s: %s" % (top, out.strip()[:200])
                     elif kind == "format" and rc != 2:
                         why = "a format edit must exit 2, got %s" % rc
                     elif kind == "format" and ptr and ptr not in out:

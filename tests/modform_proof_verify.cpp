@@ -110,6 +110,10 @@ TEST_CASE("the provenance of a proof certificate names a command that writes thi
   CHECK_THAT(congruence(rel, "circlet congruences --t 6..12 -o out"), Catch::Contains("outside the command's --t"));
   CHECK_THAT(congruence(rel, "circlet congruences --amax 4 -o out"), Catch::Contains("exceeds the command's --amax"));
   CHECK_THAT(congruence(rel, "circlet congruences --lmax 3 -o out"), Catch::Contains("exceeds the command's --lmax"));
+  CHECK_THAT(congruence(rel, cong + " -o other"), Catch::Contains("-o given twice"));
+  CHECK_THAT(congruence(rel, "circlet congruences --t 2..12"), Catch::Contains("takes one -o DIR"));
+  CHECK_THAT(congruence(rel, "circlet congruences --quick -o out"), Catch::Contains("unknown argument --quick"));
+  CHECK_THAT(with_command("circlet prove '" + rel + "' -o a.json -o b.json"), Catch::Contains("takes one -o FILE"));
 
   for (const auto& [field, value, msg] : std::vector<std::tuple<std::string, std::string, std::string>>{
            {"program", "kernel", "/provenance/program"},

@@ -366,8 +366,10 @@ std::string check_provenance_command(const std::string& cmd, const LinearRelatio
   if (w.size() < 2 || w[0] != "circlet") return "does not start with 'circlet'";
   if (w[1] == "prove") {
     std::vector<std::string> pos;
+    int outputs = 0;
     for (size_t i = 2; i < w.size(); ++i) {
       if (w[i] == "-o" || w[i] == "--output") {
+        if (++outputs > 1 || i + 1 == w.size()) return "circlet prove takes one -o FILE";
         ++i;
         continue;
       }
@@ -386,6 +388,18 @@ std::string check_provenance_command(const std::string& cmd, const LinearRelatio
   }
   if (w[1] == "congruences") {
     if (rel.terms.size() != 1 || rel.restricted) return "circlet congruences writes one-term relations only";
+    // Only its own options, each at most once, and one output directory.
+    std::map<std::string, int> seen;
+    for (size_t i = 2; i < w.size(); ++i) {
+      std::string name = w[i].substr(0, w[i].find('='));
+      if (name == "--output") name = "-o";
+      if (name != "--t" && name != "--amax" && name != "--lmax" && name != "--kmax" && name != "--test-n" && name != "-o")
+        return "unknown argument " + w[i] + " of circlet congruences";
+      if (++seen[name] > 1) return name + " given twice";
+      if (w[i].find('=') == std::string::npos) ++i;  // its value
+      if (i >= w.size()) return name + " without a value";
+    }
+    if (seen["-o"] != 1) return "circlet congruences takes one -o DIR";
     const RelationTerm& t = rel.terms[0];
     long tlo = 2, thi = 12, amax = 50, lmax = 13;
     const std::string tv = option_value(w, "--t"), av = option_value(w, "--amax"), lv = option_value(w, "--lmax");
@@ -458,7 +472,13 @@ ProofVerifyReport verify_proof_certificate(const nlohmann::json& cert) {
       r.failures.push_back("/relation: not a string");
       return r;
     }
-    LinearRelation rel = parse_relation(cert["relation"].get<std::string>());
+    LinearRelation rel;
+    try {
+      rel = parse_relation(cert["relation"].get<std::string>());
+    } catch (const std::exception& e) {
+      r.failures.push_back(std::string("/relation: ") + e.what());
+      return r;
+    }
     if (rel.str() != cert["relation"].get<std::string>())
       r.failures.push_back("/relation: not in the canonical spelling '" + rel.str() + "'");
     else
