@@ -833,7 +833,7 @@ def mul_sparse(F, terms):
         elif c == -1:
             R[o:] = map(sub, R[o:], F[:N - o])
         else:
-            R[o:] = [x + c * y for x, y in zip(R[o:], F[:N - o])]
+            R[o:] = map(add, R[o:], map(c.__mul__, F[:N - o]))
     return R
 
 
@@ -843,7 +843,7 @@ def div_pentagonal(G, d):
     (their sources lie in earlier blocks, already final)."""
     N = len(G)
     terms = pentagonal(N - 1, d)
-    BL = 256
+    BL = 1024
     small = [(o, s) for o, s in terms if o < BL]
     large = [(o, s) for o, s in terms if o >= BL]
     sp = [o for o, s in small if s == -1]   # -s_j = +1: added
@@ -870,26 +870,45 @@ def div_pentagonal(G, d):
     return F
 
 
+def gauss_sparse(N, d):
+    """prod (1-q^{2dk})^2/(1-q^{4dk}) = sum_{m in Z} (-1)^m q^{2d m^2} (Gauss; T3), without the 1."""
+    return [(2 * d * m * m, 2 * (-1) ** m) for m in range(1, math.isqrt(N // (2 * d)) + 1)]
+
+
 def family_series(kind, t, N):
     """coefficients 0..N of the family's generating function (exact integers)."""
-    N1 = N + 1
     if kind == "sq":                        # theta^S, theta = 1 + 2 sum_{m>=1} q^{m^2}
         th = [(m * m, 2) for m in range(1, math.isqrt(N) + 1)]
         F = [1] + [0] * N
         for _ in range(t):
             F = mul_sparse(F, th)
         return F
-    F = [1] + [0] * N
-    for d, x in family_eta(kind, t).items():
-        if x > 0:
-            for _ in range(x // 3):
-                F = mul_sparse(F, jacobi_cube(N, d))
-            for _ in range(x % 3):
-                F = mul_sparse(F, pentagonal(N, d))
-    for d, x in family_eta(kind, t).items():
+    e = dict(family_eta(kind, t))
+    extra = []
+    if kind == "sc":                        # prod(1+q^{2k-1}) = Gauss(q) / prod(1-q^k)
+        for d, x in ((2, -2), (4, 1)):
+            e[d] = e.get(d, 0) + x
+        extra = gauss_sparse(N, 1)
+    pos = {d: x for d, x in e.items() if x > 0}
+    g = 0
+    for d in pos:
+        g = math.gcd(g, d)
+    g = g or 1
+    n = N // g                               # the positive part is a series in y = q^g
+    F = [1] + [0] * n
+    for d, x in sorted(pos.items()):
+        for _ in range(x // 3):
+            F = mul_sparse(F, jacobi_cube(n, d // g))
+        for _ in range(x % 3):
+            F = mul_sparse(F, pentagonal(n, d // g))
+    G = [0] * (N + 1)
+    G[::g] = F
+    if extra:
+        G = mul_sparse(G, extra)
+    for d, x in sorted(e.items()):
         for _ in range(-x if x < 0 else 0):
-            F = div_pentagonal(F, d)
-    return F
+            G = div_pentagonal(G, d)
+    return G
 
 
 # ------------------------------------------------------------ a file -------
@@ -1019,12 +1038,14 @@ def main(argv):
     return worst
 
 
-if __name__ == "__main__":
+def run(argv):
+    """main() with every failure turned into exit 2 (never a traceback)."""
     try:
-        code = main(sys.argv[1:])
-    except BaseException as e:       # never a traceback
-        if isinstance(e, SystemExit):
-            raise
+        return main(argv)
+    except Exception as e:
         print("malformed: internal: %s: %s" % (type(e).__name__, e))
-        code = 2
-    sys.exit(code)
+        return 2
+
+
+if __name__ == "__main__":
+    sys.exit(run(sys.argv[1:]))
