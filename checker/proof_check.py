@@ -23,7 +23,8 @@ WHAT THIS PROGRAM TRUSTS (and nothing else):
       (with prod(1+q^{2k-1}) = prod (1-q^{2k})^2/((1-q^k)(1-q^{4k})), common practice);
       r_S(n): theta(q)^S, theta = sum_{m in Z} q^{m^2} (the definition).
   T3. Euler's pentagonal theorem prod(1-q^k) = sum_k (-1)^k q^{k(3k-1)/2} and Jacobi's
-      prod(1-q^k)^3 = sum_{k>=0} (-1)^k (2k+1) q^{k(k+1)/2} (common practice).
+      prod(1-q^k)^3 = sum_{k>=0} (-1)^k (2k+1) q^{k(k+1)/2}, Gauss's prod(1-q^k)^2/(1-q^{2k})
+      = sum_{m in Z} (-1)^m q^{m^2} (all common practice; re-tested against enumeration).
   T4. Gordon-Hughes-Newman [K. Ono, The web of modularity, 2004, Thm 1.64; quoted
       from memory]: f = prod_{delta|N} eta(delta tau)^{r_delta}, k = (1/2) sum r in Z,
       sum delta r = 0 and sum (N/delta) r = 0 (mod 24) => f(gamma tau) =
