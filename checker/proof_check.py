@@ -53,6 +53,7 @@ from operator import add, sub
 
 FORMAT = "circlet-proof-certificate/1"
 MAX_FILE = 16 << 20
+VERSIONS = ("0.1.0",)       # circlet versions whose certificates this checker knows
 MAX_T = 1000                 # the program's range of t (family parameter)
 MAX_M_PROVE = 4000000        # coefficient limit of `circlet prove` (proof.hpp default)
 MAX_M_CONGRUENCES = 400000   # the limit `circlet congruences` passes to the prover
@@ -928,24 +929,74 @@ def check_provenance(p, rel_text):
             raise Reject("/provenance/" + k, "not a string")
     if p["program"] != "circlet":
         raise Reject("/provenance/program", "not 'circlet'")
-    if not re.fullmatch(r"[0-9]+\.[0-9]+\.[0-9]+([-+][0-9A-Za-z.\-+]+)?", p["version"]):
-        raise Reject("/provenance/version", "not a version string")
-    if not re.fullmatch(r"[0-9]{4}-(0[1-9]|1[0-2])-(0[1-9]|[12][0-9]|3[01])T([01][0-9]|2[0-3]):[0-5][0-9]:[0-5][0-9]Z",
-                        p["date"]):
-        raise Reject("/provenance/date", "not YYYY-MM-DDTHH:MM:SSZ")
-    cmd = p["command"]
-    if cmd.startswith("circlet congruences "):
-        return MAX_M_CONGRUENCES
-    if not cmd.startswith("circlet prove "):
-        raise Reject("/provenance/command", "neither 'circlet prove ' nor 'circlet congruences '")
+    if p["version"] not in VERSIONS:
+        raise Reject("/provenance/version", "not one of %s" % (VERSIONS,))
+    if not valid_date(p["date"]):
+        raise Reject("/provenance/date", "not a valid UTC date YYYY-MM-DDTHH:MM:SSZ")
     try:
-        argv = shlex.split(cmd)
-        given = relation_text(parse_relation(argv[2]))
+        argv = shlex.split(p["command"])
+    except ValueError as e:
+        raise Reject("/provenance/command", "not a shell command line: %s" % e)
+    if len(argv) < 2 or argv[0] != "circlet" or argv[1] not in ("prove", "congruences"):
+        raise Reject("/provenance/command", "neither 'circlet prove' nor 'circlet congruences'")
+    opts, pos, i = {}, [], 2
+    while i < len(argv):
+        a = argv[i]
+        name, eq, val = a.partition("=")
+        if name.startswith("-"):
+            name = "-o" if name == "--output" else name
+            if name in opts:
+                raise Reject("/provenance/command", "%s given twice" % name)
+            if not eq:
+                if i + 1 >= len(argv):
+                    raise Reject("/provenance/command", "%s without a value" % name)
+                i, val = i + 1, argv[i + 1]
+            opts[name] = val
+        else:
+            pos.append(a)
+        i += 1
+    try:
+        rel = parse_relation(rel_text)
+    except (ValueError, IndexError) as e:
+        raise Reject("/relation", "does not parse: %s" % e)
+    if argv[1] == "congruences":
+        # t, A and the prime of the modulus within the command's ranges (defaults 2..12, 50, 13)
+        if pos or set(opts) - {"--t", "--amax", "--lmax", "--kmax", "--test-n", "-o"} or "-o" not in opts:
+            raise Reject("/provenance/command", "not a congruences command: options --t --amax --lmax --kmax --test-n, one -o")
+        m = re.fullmatch(r"([0-9]+)(?:\.\.([0-9]+))?", opts.get("--t", "2..12"))
+        if not m or not all(re.fullmatch("[0-9]+", opts.get(k, "1")) for k in ("--amax", "--lmax")):
+            raise Reject("/provenance/command", "a range or number of the command does not parse")
+        tlo, thi = int(m.group(1)), int(m.group(2) or m.group(1))
+        if len(rel.terms) != 1 or rel.restricted:
+            raise Reject("/provenance/command", "circlet congruences writes one-term relations only")
+        t, A = rel.terms[0].t, rel.terms[0].A
+        if not tlo <= t <= thi:
+            raise Reject("/provenance/command", "t outside the command's --t")
+        if A > int(opts.get("--amax", "50")):
+            raise Reject("/provenance/command", "A exceeds the command's --amax")
+        M = rel.modulus
+        if M and not any(M % q == 0 for q in range(2, int(opts.get("--lmax", "13")) + 1)):
+            raise Reject("/provenance/command", "the prime of the modulus exceeds the command's --lmax")
+        return MAX_M_CONGRUENCES
+    if set(opts) - {"-o"} or len(pos) != 1:
+        raise Reject("/provenance/command", "circlet prove takes one relation and at most one -o FILE")
+    try:
+        given = relation_text(parse_relation(pos[0]))
     except (ValueError, IndexError) as e:
         raise Reject("/provenance/command", "the quoted relation does not parse: %s" % e)
     if given != rel_text:
         raise Reject("/provenance/command", "the quoted relation is not the certificate's relation")
     return MAX_M_PROVE
+
+
+def valid_date(d):
+    m = re.fullmatch(r"([0-9]{4})-([0-9]{2})-([0-9]{2})T([0-9]{2}):([0-9]{2}):([0-9]{2})Z", d)
+    if not m:
+        return False
+    y, mo, da, h, mi, se = (int(x) for x in m.groups())
+    leap = y % 4 == 0 and (y % 100 != 0 or y % 400 == 0)
+    days = [31, 29 if leap else 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31]
+    return 1 <= mo <= 12 and 1 <= da <= days[mo - 1] and h <= 23 and mi <= 59 and se <= 60
 
 
 def first_pass(cert):
