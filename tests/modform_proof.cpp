@@ -159,3 +159,119 @@ TEST_CASE("a proof certificate verifies; an edited one is rejected", "[modform]"
   // Not a proof certificate at all.
   CHECK_FALSE(verify_proof_certificate(nlohmann::json::array()).ok());
 }
+
+namespace {
+bool chain_has(const nlohmann::json& chain, const std::string& op) {
+  for (const auto& s : chain)
+    if (s["op"] == op) return true;
+  return false;
+}
+}  // namespace
+
+TEST_CASE("relations with a dilated term that hold by construction are proved, perturbed ones refuted", "[modform]") {
+  // By construction of theta = sum q^(x^2): x^2 = 2n forces x = 2y and n = 2y^2, so
+  // r_1(2n) = r_1(n/2) for even n and r_1(2n) = 0 for odd n; that is sq1(2n) = sq1(n/2).
+  ProofResult s = prove("sq1(2n) = sq1(n/2)");
+  INFO(s.reason);
+  REQUIRE(s.verdict == ProofVerdict::Proved);
+  CHECK(chain_has(s.certificate["terms"][1]["chain"], "V_2"));
+  CHECK(s.certificate["terms"][1]["dilation"]["d"] == 2);
+  CHECK(s.certificate["terms"][1]["beta"] == "0");
+  // Another class: fails at n = 0 (sq1(0) = 1, the dilated term is 0 there).
+  ProofResult s2 = prove("sq1(2n) = sq1((n-1)/2)");
+  REQUIRE(s2.verdict == ProofVerdict::Refuted);
+  CHECK(s2.counterexample_n == 0);
+  CHECK(s2.counterexample_values == std::vector<std::string>{"1", "0"});
+  CHECK_THAT(s2.reason, Catch::Contains("sq1(0) = 1, sq1((n-1)/2) = 0 (n mod 2 != 1)"));
+
+  // By construction: on n = 7k + 4, 7n + 2 = 49k + 30, so both sides are the same count.
+  // Exercises a shifted class (j = 4) with a restriction; beta = 7*(5/8) - 4 = 3/8.
+  ProofResult c = prove("c4(7n+2) = c4(49(n-4)/7+30) for n mod 7 = 4");
+  INFO(c.reason);
+  REQUIRE(c.verdict == ProofVerdict::Proved);
+  CHECK(c.certificate["terms"][1]["beta"] == "3/8");
+  CHECK(c.certificate["terms"][1]["dilation"]["beta_of_progression"] == "5/8");
+  ProofResult c2 = prove("c4(7n+2) = c4(49(n-4)/7+31) for n mod 7 = 4");
+  REQUIRE(c2.verdict == ProofVerdict::Refuted);
+  CHECK(c2.counterexample_n == 4);
+  // c4(30) = 7 (OEIS A045831), c4(31) = 2 (A045831; also PARI's eta(q^4)^4/eta(q))
+  CHECK(c2.counterexample_values == std::vector<std::string>{"7", "2"});
+
+  // By construction, with V_1 after the alignment (the progression 2k + 1 already sits
+  // on the odd n): sq1(n) for odd n is sq1(2(n-1)/2 + 1).
+  ProofResult o = prove("sq1(n) = sq1(2(n-1)/2+1) for n mod 2 = 1");
+  INFO(o.reason);
+  CHECK(o.verdict == ProofVerdict::Proved);
+  require_refuted("sq1(n) = sq1(2(n-1)/2+1)");  // n = 0: sq1(0) = 1 against 0
+  // Not aligned (beta = 7*(5/8) - 3 differs from 3/8): never PROVED.
+  CHECK(prove("c4(7n+2) = c4((n-3)/7)").verdict != ProofVerdict::Proved);
+}
+
+TEST_CASE("c4(7n+2) = 2 sc7(8n+1) + c4((n-4)/7) holds for every n", "[modform]") {
+  // Found by the scan's dilated-term search (src/scan/exact_compare.cpp) on the exception
+  // class of the relation above; PARI/GP confirms the numbers independently below.
+  ProofResult r = prove("c4(7n+2) = 2*sc7(8n+1) + c4((n-4)/7)");
+  INFO(r.reason);
+  REQUIRE(r.verdict == ProofVerdict::Proved);
+  CHECK(r.space.level == 1792);  // no complement needed: lcm(224, 1792, 32*7)
+  CHECK(r.bound == Fmpz(384));
+  const nlohmann::json& t = r.certificate["terms"][2];
+  CHECK(chain_has(t["chain"], "V_7"));
+  CHECK(t["dilation"]["j"] == 4);
+  CHECK(t["operators"] == "U_1, sieve m = 5 mod 8, V_1, V_7 (dilation: n = 7k + 4)");
+  // Perturbed: the coefficient 2 fails first at n = 4: c4(30) = 7, sc7(33) = 3, c4(0) = 1.
+  ProofResult p = prove("c4(7n+2) = 2*sc7(8n+1) + 2*c4((n-4)/7)");
+  REQUIRE(p.verdict == ProofVerdict::Refuted);
+  CHECK(p.counterexample_n == 4);
+  CHECK(p.counterexample_values == std::vector<std::string>{"7", "3", "1"});
+  CHECK(p.counterexample_total == "-1");
+  // Another class for the extra term: fails at n = 4 too (the term is 0 there).
+  ProofResult q = prove("c4(7n+2) = 2*sc7(8n+1) + c4((n-3)/7)");
+  CHECK(q.verdict == ProofVerdict::Refuted);
+}
+
+TEST_CASE("PARI/GP agrees: c4(49k+30) - 2 sc7(56k+33) = c4(k)", "[modform][gp]") {
+  if (!circlet::testing::gp_available()) {
+    WARN("gp not found: PARI/GP comparison skipped");
+    return;
+  }
+  // The generating functions of docs/MATH.md §1, written with PARI's eta(x) = prod (1 - x^k).
+  const std::string out = circlet::testing::gp_run(
+      "default(seriesprecision, 1300); q = 'q + O('q^1300);"
+      "c4 = eta(q^4)^4/eta(q); s7 = eta(q^2)^2/(eta(q)*eta(q^4))*eta(q^14)*eta(q^7)*eta(q^28);"
+      "a(f, n) = polcoeff(f, n, 'q);\n"  // a definition runs to the end of its line
+      "print(vector(20, k, a(c4, 49*(k-1)+30) - 2*a(s7, 56*(k-1)+33) - a(c4, k-1)));"
+      "print(vector(20, k, a(c4, 49*(k-1)+30) - 2*a(s7, 56*(k-1)+33)));\n");
+  std::istringstream in(out);
+  std::string zeros, diffs;
+  std::getline(in, zeros);
+  std::getline(in, diffs);
+  CHECK(zeros == "[0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0]");
+  CHECK(diffs != zeros);  // the restricted relation alone fails on the class (control)
+}
+
+TEST_CASE("a certificate with a dilated term verifies; an edited one is rejected", "[modform]") {
+  ProofResult r = prove("c4(7n+2) = 2*sc7(8n+1) + c4((n-4)/7)");
+  REQUIRE(r.verdict == ProofVerdict::Proved);
+  nlohmann::json cert = r.certificate;
+  CHECK(verify_proof_certificate(cert).ok());
+  // Edit the recorded dilation and re-seal: the recomputation catches it.
+  nlohmann::json a = cert;
+  a["terms"][2]["dilation"]["d"] = 5;
+  a["digest"] = proof_certificate_digest(a);
+  CHECK_FALSE(verify_proof_certificate(a).ok());
+  // Drop the V_7 step from the chain and re-seal.
+  nlohmann::json b = cert;
+  b["terms"][2]["chain"].erase(b["terms"][2]["chain"].size() - 1);
+  b["digest"] = proof_certificate_digest(b);
+  CHECK_FALSE(verify_proof_certificate(b).ok());
+  // Move the extra term to another class and re-seal: the verdict differs.
+  nlohmann::json c = cert;
+  c["relation"] = "c4(7n+2) - 2*sc7(8n+1) - c4((n-3)/7) = 0";
+  c["digest"] = proof_certificate_digest(c);
+  CHECK_FALSE(verify_proof_certificate(c).ok());
+  // Unsealed edit: the digest catches it.
+  nlohmann::json d = cert;
+  d["terms"][2]["beta"] = "5/8";
+  CHECK_FALSE(verify_proof_certificate(d).ok());
+}

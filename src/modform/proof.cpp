@@ -78,7 +78,8 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
     EtaModularity em;
     FormSpace space;
     std::vector<ChainStep> chain;
-    Fmpq beta;
+    Fmpq beta;       // the relation's β this term needs (aligned: the same for every term)
+    Fmpq own_beta;   // R/M of the progression A k + B itself (= beta unless dilated)
     long M = 0, R = 0, a = 1, b = 1;
   };
   std::vector<TermData> td;
@@ -127,7 +128,19 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
     // β = (B + s)/A with s = shift/D: F(An+B) sits at exponent D(An+B)+shift = M n + R.
     d.M = d.ff.D * t.A;
     d.R = d.ff.D * t.B + d.ff.shift;
-    fmpq_set_si(d.beta, d.R, static_cast<ulong>(d.M));
+    fmpq_set_si(d.own_beta, d.R, static_cast<ulong>(d.M));
+    d.beta = d.own_beta;
+    if (t.dilated()) {
+      // F(A k + B) at n = d k + j: L(n + β) = L d (k + β') needs β = d β' − j (docs/MATH.md §8 (b)).
+      Fmpq dj;
+      fmpq_mul_si(d.beta, d.own_beta, t.d);
+      fmpq_set_si(dj, t.j, 1);
+      fmpq_sub(d.beta, d.beta, dj);
+      jt["dilation"] = {{"d", t.d},
+                        {"j", t.j},
+                        {"meaning", "F(A(n-j)/d + B) for n = j mod d, else 0"},
+                        {"beta_of_progression", d.own_beta.str()}};
+    }
     jt["beta"] = d.beta.str();
     jterms.push_back(jt);
     td.push_back(std::move(d));
@@ -158,9 +171,14 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
     std::vector<FormSpace> spaces;
     for (size_t i = 0; i < td.size(); ++i) {
       auto& d = td[i];
-      long g = std::gcd(d.M, L);
+      const auto& t = rel.terms[i];
+      // The progression's own series Σ_k F(A k + B) q^{Lt (k + β')}; a dilated term
+      // then takes V_e, e = L d / Lt, to Σ_k F(A k + B) q^{L (d k + j + β)}.
+      const long Lt = t.dilated() ? fmpz_get_si(fmpq_denref(d.own_beta.get())) : L;
+      CIRCLET_ASSERT((L * t.d) % Lt == 0, "alignment: the progression's denominator must divide L d");
+      long g = std::gcd(d.M, Lt);
       d.a = d.M / g;
-      d.b = L / g;
+      d.b = Lt / g;
       CIRCLET_ASSERT(d.R % d.a == 0, "alignment: a must divide R");
       d.chain.push_back({"start: " + rel.terms[i].family.name(), d.em.rule, d.space});
       FormSpace V = op_U(d.space, d.a, &d.chain);
@@ -168,6 +186,12 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
       V = op_V(V, d.b, &d.chain);
       jterms[i]["operators"] = "U_" + std::to_string(d.a) + ", sieve m = " + std::to_string(pmod(d.R / d.a, d.M / d.a)) +
                                " mod " + std::to_string(d.M / d.a) + ", V_" + std::to_string(d.b);
+      if (t.dilated()) {
+        const long e = L * t.d / Lt;
+        V = op_V(V, e, &d.chain);
+        jterms[i]["operators"] = jterms[i]["operators"].get<std::string>() + ", V_" + std::to_string(e) +
+                                 " (dilation: n = " + std::to_string(t.d) + "k + " + std::to_string(t.j) + ")";
+      }
       jterms[i]["chain"] = chain_to_json(d.chain);
       spaces.push_back(V);
     }
@@ -203,7 +227,7 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
   long n_check = std::max(n_max, opt.min_n);
   // Keep the comparison within the series engine's reach.
   for (const auto& t : rel.terms) {
-    long lim = (opt.max_m - t.B) / t.A;
+    long lim = t.d * ((opt.max_m - t.B) / t.A) + t.j;  // argument(n) <= max_m for n <= lim
     if (lim < n_check) {
       n_check = std::max(0L, lim);
       if (bound_ok && n_check < n_max) {
@@ -217,7 +241,7 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
   std::map<std::string, IntegerSeries> series;
   std::map<std::string, long> need;
   for (const auto& t : rel.terms) {
-    long n = t.A * n_check + t.B;
+    long n = t.A * (n_check / t.d) + t.B;  // at least argument(n) for every n <= n_check
     auto& v = need[t.family.name()];
     v = std::max(v, n);
   }
@@ -232,6 +256,8 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
     fmpz_mul(x, x, fmpq_numref(t.coeff.get()));
     lam.push_back(x);
   }
+  bool any_dilated = false;
+  for (const auto& t : rel.terms) any_dilated = any_dilated || t.dilated();
   std::string digest_text;
   Fmpz total, rem;
   bool refuted = false;
@@ -242,10 +268,13 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
     std::vector<std::string> vals;
     for (size_t i = 0; i < rel.terms.size(); ++i) {
       const auto& t = rel.terms[i];
-      const fmpz* v = series.at(t.family.name()).at(t.A * n + t.B);
-      fmpz_addmul(total, lam[i], v);
-      Fmpz vv;
-      fmpz_set(vv, v);
+      const long arg = t.argument(n);
+      Fmpz vv;  // 0: a dilated term off its class
+      if (arg >= 0) {
+        const fmpz* v = series.at(t.family.name()).at(arg);
+        fmpz_addmul(total, lam[i], v);
+        fmpz_set(vv, v);
+      }
       vals.push_back(vv.str());
       line += " " + vals.back();
     }
@@ -264,9 +293,15 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
   if (refuted) {
     res.verdict = ProofVerdict::Refuted;
     std::string vs;
-    for (size_t i = 0; i < rel.terms.size(); ++i)
-      vs += (i ? ", " : "") + rel.terms[i].family.name() + "(" + std::to_string(rel.terms[i].A * res.counterexample_n + rel.terms[i].B) +
-            ") = " + res.counterexample_values[i];
+    for (size_t i = 0; i < rel.terms.size(); ++i) {
+      const auto& t = rel.terms[i];
+      const long arg = t.argument(res.counterexample_n);
+      vs += (i ? ", " : "");
+      if (arg >= 0)
+        vs += t.family.name() + "(" + std::to_string(arg) + ") = " + res.counterexample_values[i];
+      else
+        vs += t.str() + " = 0 (n mod " + std::to_string(t.d) + " != " + std::to_string(t.j) + ")";
+    }
     res.reason = "fails at n = " + std::to_string(res.counterexample_n) + ": " + vs + "; left side = " + res.counterexample_total;
   } else if (all_ok && bound_ok) {
     res.verdict = ProofVerdict::Proved;
@@ -278,7 +313,8 @@ ProofResult prove_relation(const LinearRelation& rel, const ProofOptions& opt) {
   }
   cert["checked"] = {{"n_from", 0},
                      {"n_to", res.n_checked},
-                     {"lines", "one per n in the class: n, then F_i(A_i n + B_i) for each term"},
+                     {"lines", any_dilated ? "one per n in the class: n, then the value of each term (F_i(A_i(n-j_i)/d_i + B_i), 0 off n = j_i mod d_i)"
+                                           : "one per n in the class: n, then F_i(A_i n + B_i) for each term"},
                      {"coefficient_digest", res.coefficient_digest}};
   cert["verdict"] = proof_verdict_name(res.verdict);
   cert["reason"] = res.reason;

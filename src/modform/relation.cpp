@@ -104,6 +104,10 @@ class Parser {
     else return false;
     return j < s_.size() && std::isdigit(static_cast<unsigned char>(s_[j]));
   }
+  bool peek_char(char ch) {
+    skip();
+    return i_ < s_.size() && s_[i_] == ch;
+  }
   bool eat_word(const std::string& w) {
     if (!peek_word(w)) return false;
     i_ += w.size();
@@ -175,8 +179,30 @@ class Parser {
       A = small_integer("A in " + name + "(A n + B)", kMaxA);
       eat("*");
     }
-    if (!eat("n")) fail("the argument of " + name + " must be A n + B (e.g. 5n+4)");
+    // A dilated argument A(n-j)/d + B or A n/d + B, else A n + B.
+    const std::string dil = name + "(A(n-j)/d + B)";
+    long d = 1, jc = 0;
+    bool dilated = false;
+    if (eat("(")) {
+      if (!eat("n")) fail("expected 'n' after '(' in the argument of " + name + " (e.g. " + name + "((n-4)/7))");
+      if (eat("-")) jc = small_integer("j in " + dil, kMaxQ);
+      else if (peek_char('+')) fail("the class in " + dil + " is written (n-j)/d with 0 <= j < d");
+      if (!eat(")")) fail("expected ')' after n-j in " + dil);
+      if (!eat("/")) fail("expected '/d' after (n-j) in " + dil);
+      d = small_integer("d in " + dil, kMaxQ);
+      dilated = true;
+    } else {
+      if (!eat("n")) fail("the argument of " + name + " must be A n + B (e.g. 5n+4)");
+      if (eat("/")) {
+        d = small_integer("d in " + dil, kMaxQ);
+        dilated = true;
+      }
+    }
     if (A < 1) fail("A in " + name + "(A n + B) must be at least 1");
+    if (dilated) {
+      if (d < 2) fail("d in " + dil + " must be at least 2");
+      if (jc >= d) fail("j in " + dil + " must be below d");
+    }
     long B = 0;
     skip();
     if (eat("+")) {
@@ -187,7 +213,7 @@ class Parser {
     if (!eat(")")) fail("expected ')' after the argument of " + name);
     if (fmpq_is_zero(c)) return;
     if (sign < 0) fmpq_neg(c, c);
-    rel.terms.push_back({c, fam, A, B});
+    rel.terms.push_back({c, fam, A, B, d, jc});
   }
 
   const std::string& s_;
@@ -197,6 +223,15 @@ class Parser {
 }  // namespace
 
 LinearRelation parse_relation(const std::string& text) { return Parser(text).parse(); }
+
+std::string RelationTerm::str() const {
+  const std::string a = A == 1 ? std::string() : std::to_string(A);
+  std::string arg;
+  if (d == 1) arg = a + "n";
+  else if (j == 0) arg = a + "n/" + std::to_string(d);
+  else arg = a + "(n-" + std::to_string(j) + ")/" + std::to_string(d);
+  return family.name() + "(" + arg + (B ? "+" + std::to_string(B) : std::string()) + ")";
+}
 
 std::string LinearRelation::str() const {
   std::string s;
@@ -208,7 +243,7 @@ std::string LinearRelation::str() const {
     if (i == 0) s += neg ? "-" : "";
     else s += neg ? " - " : " + ";
     if (!fmpq_is_one(c)) s += c.str() + "*";
-    s += t.family.name() + "(" + (t.A == 1 ? std::string() : std::to_string(t.A)) + "n" + (t.B ? "+" + std::to_string(t.B) : std::string()) + ")";
+    s += t.str();
   }
   s += fmpz_is_zero(modulus) ? " = 0" : " == 0 mod " + modulus.str();
   if (restricted) s += " for n mod " + std::to_string(Q) + (complement ? " != " : " = ") + std::to_string(r);

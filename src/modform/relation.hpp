@@ -10,8 +10,14 @@
 //   relation := side ("=" | "==") side [ ["("] "mod" INT ["^" INT] [")"] ]
 //               [ "for" "n" "mod" INT ("=" | "==" | "!=") INT ]
 //   side     := ["+" | "-"] term { ("+" | "-") term }
-//   term     := "0" | [RATIONAL ["*"]] FAMILY "(" [INT ["*"]] "n" [("+" | "-") INT] ")"
+//   term     := "0" | [RATIONAL ["*"]] FAMILY "(" arg ")"
+//   arg      := [INT ["*"]] "n" ["+" INT]                           (A n + B)
+//             | [INT ["*"]] ( "n" | "(" "n" ["-" INT] ")" ) "/" INT ["+" INT]
+//                                                               (A (n - j)/d + B)
 // FAMILY is c<T>, sc<T> or sq<S>; the argument A n + B needs A ≥ 1, B ≥ 0.
+// A dilated term F(A(n-j)/d + B) (d ≥ 2, 0 ≤ j < d), e.g. c4((n-4)/7) or
+// 3*sc7(8(n-4)/7+1), is F(A(n-j)/d + B) when n ≡ j (mod d) and 0 otherwise: its
+// series in n is the image under V_d of the ordinary term's (docs/MATH.md §8 (b)).
 // "=" without "mod" is an identity for every n ≥ 0 (in the class, if given);
 // with "mod ℓ^k" a congruence (integer coefficients only).
 #include <string>
@@ -26,6 +32,13 @@ struct RelationTerm {
   Fmpq coeff;  // λ_i: the relation is Σ λ_i F_i(A_i n + B_i) = 0 (or ≡ 0)
   Family family;
   long A = 1, B = 0;
+  long d = 1, j = 0;  // d ≥ 2: the dilated term F(A(n-j)/d + B), 0 off n ≡ j (mod d)
+  bool dilated() const { return d > 1; }
+  /// The term's value of the progression at this n: A(n-j)/d + B, or -1 when the
+  /// term vanishes there (dilated, n ≢ j mod d).
+  long argument(long n) const { return d == 1 ? A * n + B : (n % d == j ? A * ((n - j) / d) + B : -1); }
+  /// "c4(7n+2)", "c4((n-4)/7)", "sc7(8(n-4)/7+1)", "c4(n/7)" (no coefficient).
+  std::string str() const;
 };
 
 struct LinearRelation {
