@@ -60,6 +60,8 @@ MAX_M_CONGRUENCES = 400000   # the limit `circlet congruences` passes to the pro
 MIN_N = 100                  # the prover compares at least n = 0..100
 MAX_SERIES = 5000000         # this checker refuses longer series
 LINES = "one per n in the class: n, then F_i(A_i n + B_i) for each term"
+LINES_DILATED = ("one per n in the class: n, then the value of each term "
+                 "(F_i(A_i(n-j_i)/d_i + B_i), 0 off n = j_i mod d_i)")
 ONO22 = "Ono, The web of modularity (2004), Prop. 2.22: "
 ONO37 = "Ono, The web of modularity (2004), Prop. 3.7: "
 KOB = "Koblitz, GTM 97, Prop. III.3.17: "
@@ -234,9 +236,27 @@ def frs(x):
 
 # ------------------------------------------------------ relation text ------
 class Term:
-    def __init__(self, coeff, kind, t, A, B):
-        self.coeff, self.kind, self.t, self.A, self.B = coeff, kind, t, A, B
+    """coeff * F(A n + B), or for a dilated term (d >= 2) coeff * F(A (n-j)/d + B) when
+    n = j mod d and 0 otherwise (the image of V_d, docs/MATH.md §8 (b))."""
+    def __init__(self, coeff, kind, t, A, B, d=1, j=0):
+        self.coeff, self.kind, self.t, self.A, self.B, self.d, self.j = coeff, kind, t, A, B, d, j
         self.name = kind + str(t)
+
+    def arg(self, n):
+        """The argument at n, or -1 where a dilated term is 0."""
+        if n % self.d != self.j:
+            return -1
+        return self.A * ((n - self.j) // self.d) + self.B
+
+    def text(self):
+        a = "" if self.A == 1 else str(self.A)
+        if self.d == 1:
+            x = a + "n"
+        elif self.j == 0:
+            x = a + "n/%d" % self.d
+        else:
+            x = a + "(n-%d)/%d" % (self.j, self.d)
+        return "%s(%s%s)" % (self.name, x, "+%d" % self.B if self.B else "")
 
 
 class Relation:
@@ -315,9 +335,27 @@ def parse_relation(s):
             A = number(1000000, "A")
             if peek() == "*":
                 take()
+        d, j = 1, 0
+        if peek() == "(":                         # A(n-j)/d
+            take("(")
             take("n")
+            if peek() == "-":
+                take()
+                j = number(1000000, "j")
+            take(")")
+            take("/")
+            d = number(1000000, "d")
+            if d < 2:
+                raise ValueError("d < 2")
         else:
             take("n")
+            if peek() == "/":                     # A n/d
+                take()
+                d = number(1000000, "d")
+                if d < 2:
+                    raise ValueError("d < 2")
+        if j >= d and d > 1:
+            raise ValueError("j >= d")
         if A < 1:
             raise ValueError("A < 1")
         B = 0
@@ -328,7 +366,7 @@ def parse_relation(s):
             raise ValueError("negative B")
         take(")")
         if c != 0:
-            R.terms.append(Term(c * sign, m.group(1), t, A, B))
+            R.terms.append(Term(c * sign, m.group(1), t, A, B, d, j))
 
     def side(sign):
         s = 1
@@ -385,7 +423,7 @@ def relation_text(R):
         s += ("-" if t.coeff < 0 else "") if i == 0 else (" - " if t.coeff < 0 else " + ")
         if c != 1:
             s += str(c) + "*"
-        s += "%s(%sn%s)" % (t.name, "" if t.A == 1 else t.A, "+%d" % t.B if t.B else "")
+        s += t.text()
     s += " = 0" if R.modulus == 0 else " == 0 mod %d" % R.modulus
     if R.restricted:
         s += " for n mod %d %s %d" % (R.Q, "!=" if R.complement else "=", R.r)
@@ -700,7 +738,12 @@ def structure(R, max_m):
             sp = Space(tw, level, ch)
             sp.S, sp.s = D, shift % D                  # exponents D n + shift
         M, Rr = D * t.A, D * t.B + shift               # F(An+B) at q^{Mn+R}
-        beta = Fr(Rr, M)
+        beta = own = Fr(Rr, M)
+        if t.d > 1:
+            # F(A k + B) at n = d k + j: L(n + beta) = L d (k + beta') needs beta = d beta' - j
+            beta = t.d * own - t.j
+            jt["dilation"] = {"d": t.d, "j": t.j, "meaning": "F(A(n-j)/d + B) for n = j mod d, else 0",
+                              "beta_of_progression": frs(own)}
         jt["beta"] = frs(beta)
         jterms.append(jt)
         tds.append((sp, m, M, Rr, beta, t))
@@ -719,13 +762,22 @@ def structure(R, max_m):
         exp["alignment"] = {"beta": frs(beta), "L": L, "m_of_n": "m = %dn + %d" % (L, c)}
         spaces = []
         for i, (sp, m, M, Rr, _, t) in enumerate(tds):
-            g = math.gcd(M, L)
-            a, b = M // g, L // g
+            # the progression's own series sum_k F(Ak+B) q^{Lt (k + beta')}; a dilated term then
+            # takes V_e, e = L d / Lt, to sum_k F(Ak+B) q^{L (d k + j + beta)}
+            Lt = Fr(Rr, M).denominator if t.d > 1 else L
+            if (L * t.d) % Lt:
+                raise Reject("/terms/%d" % i, "alignment: the progression's denominator does not divide L d")
+            g = math.gcd(M, Lt)
+            a, b = M // g, Lt // g
             if Rr % a:
                 raise Reject("/terms/%d" % i, "alignment: a does not divide R")
             ch = [{"op": "start: " + t.name, "rule": m[3], "after": sp.json()}]
             V = apply_V(apply_sieve(apply_U(sp, a, ch), Rr // a, M // a, ch), b, ch)
             jterms[i]["operators"] = "U_%d, sieve m = %d mod %d, V_%d" % (a, (Rr // a) % (M // a), M // a, b)
+            if t.d > 1:
+                e = L * t.d // Lt
+                V = apply_V(V, e, ch)
+                jterms[i]["operators"] += ", V_%d (dilation: n = %dk + %d)" % (e, t.d, t.j)
             jterms[i]["chain"] = ch
             spaces.append(V)
         chain = []
@@ -751,7 +803,7 @@ def structure(R, max_m):
             why = "the Sturm bound %d exceeds the coefficient limit %d" % (bound, max_m)
     n_check = max(n_max, MIN_N)
     for t in R.terms:
-        lim = int(Fr(max_m - t.B, t.A))             # C++ division truncates toward 0
+        lim = t.d * int(Fr(max_m - t.B, t.A)) + t.j  # C++ division truncates toward 0
         if lim < n_check:
             n_check = max(0, lim)
             if bound_ok and n_check < n_max:
@@ -771,19 +823,21 @@ def finish(R, plan, series):
     for n in range(plan["n_check"] + 1):
         if R.restricted and ((n % R.Q == R.r) == R.complement):
             continue
-        vals = [series[t.name][t.A * n + t.B] for t in R.terms]
+        vals = [series[t.name][t.arg(n)] if t.arg(n) >= 0 else 0 for t in R.terms]
         text.append(" ".join(map(str, [n] + vals)) + "\n")
         tot = sum(l * v for l, v in zip(lam, vals))
         if (tot if R.modulus == 0 else tot % R.modulus) != 0:
             bad = (n, vals, tot)
             break
-    out = {"checked": {"n_from": 0, "n_to": bad[0] if bad else plan["n_check"], "lines": LINES,
+    out = {"checked": {"n_from": 0, "n_to": bad[0] if bad else plan["n_check"],
+                       "lines": LINES_DILATED if any(t.d > 1 for t in R.terms) else LINES,
                        "coefficient_digest": "sha256:" + hashlib.sha256("".join(text).encode()).hexdigest()}}
     if bad:
         n, vals, tot = bad
         out["verdict"] = "REFUTED"
         out["reason"] = "fails at n = %d: %s; left side = %s" % (
-            n, ", ".join("%s(%d) = %d" % (t.name, t.A * n + t.B, v) for t, v in zip(R.terms, vals)),
+            n, ", ".join("%s(%d) = %d" % (t.name, t.arg(n), v) if t.arg(n) >= 0 else
+                         "%s = 0 (n mod %d != %d)" % (t.text(), t.d, t.j) for t, v in zip(R.terms, vals)),
             str(tot) + ("/%d" % den if den != 1 else ""))
         out["counterexample"] = {"n": n, "values": [str(v) for v in vals],
                                  "left_side": str(tot) + ("/%d" % den if den != 1 else "")}
@@ -1031,7 +1085,7 @@ def first_pass(cert):
             same(exp[k], cert[k], "/" + k)
     need = {}
     for t in R.terms:
-        need[(t.kind, t.t)] = max(need.get((t.kind, t.t), 0), t.A * plan["n_check"] + t.B)
+        need[(t.kind, t.t)] = max(need.get((t.kind, t.t), 0), t.A * (plan["n_check"] // t.d) + t.B)
     if max(need.values()) > MAX_SERIES:
         raise Reject("/checked/n_to", "needs more than %d coefficients (this checker's limit)" % MAX_SERIES)
     return R, plan, need

@@ -94,7 +94,7 @@ def conjugate(lam):
 class Committed(unittest.TestCase):
     def test_every_committed_certificate_in_one_invocation(self):
         files = sorted(glob.glob(os.path.join(PROOFS, "*.json")) + glob.glob(os.path.join(CONGR, "*.json")))
-        self.assertEqual(len(files), 1153)
+        self.assertEqual(len(files), 1154)  # 15 proofs + 1139 congruence certificates
         r = subprocess.run([sys.executable, CHECKER] + files, capture_output=True, text=True, timeout=600)
         self.assertEqual(r.returncode, 0, r.stdout[-2000:] + r.stderr[-2000:])
         self.assertEqual(r.stdout.strip(), "accepted")
@@ -220,6 +220,22 @@ class Modularity(unittest.TestCase):
                     "1/2*c5(n) == 0 mod 5", "c5(n) = 0 for n mod 3 != 3", "= 0"):
             self.assertRaises(ValueError, pc.parse_relation, bad)
 
+    def test_dilated_terms(self):
+        # docs/MATH.md §8 (b): F(A(n-j)/d + B) is F at that argument for n = j mod d, else 0
+        R = pc.parse_relation("c4(7n+2) = 2*sc7(8n+1) + c4((n-4)/7)")
+        self.assertEqual(pc.relation_text(R), "c4(7n+2) - 2*sc7(8n+1) - c4((n-4)/7) = 0")
+        t = R.terms[2]
+        self.assertEqual([t.arg(n) for n in (4, 5, 11, 18)], [0, -1, 1, 2])
+        R = pc.parse_relation("c4(7n+2) = c4(49(n-4)/7+30) for n mod 7 = 4")
+        self.assertEqual(R.terms[1].arg(11), 49 + 30)
+        self.assertEqual(pc.relation_text(pc.parse_relation("sq1(2n) = sq1(n/2)")), "sq1(2n) - sq1(n/2) = 0")
+        for bad in ("c4((n-7)/7) = 0", "c4((n+1)/7) = 0", "c4((n-1)/1) = 0", "c4((n-1)) = 0", "c4(n/1) = 0"):
+            self.assertRaises(ValueError, pc.parse_relation, bad)
+        # the whole c4/sc7 relation: one V_7 more on the dilated term, bound 384 (m = 8n + 3)
+        exp, plan = pc.structure(pc.parse_relation("c4(7n+2) = 2*sc7(8n+1) + c4((n-4)/7)"), pc.MAX_M_PROVE)
+        self.assertEqual((exp["space"]["level"], exp["sturm_bound"]), (1792, "384"))
+        self.assertEqual(exp["terms"][2]["chain"][-1]["op"], "V_7")
+
     def test_worked_example_of_math_md(self):
         # docs/MATH.md §8 worked example: level 12544, index 21504, bound 2688
         R = pc.parse_relation("c4(7n+2) = 2*sc7(8n+1) for n mod 7 != 4")
@@ -298,6 +314,9 @@ class Mutations(unittest.TestCase):
 
     def test_mutations_c4_sc7_restricted(self):
         self.check_all("c4_sc7_restricted.json")
+
+    def test_mutations_c4_sc7_dilated(self):
+        self.check_all("c4_sc7_dilated.json")
 
     def test_reading_rules(self):
         with open(os.path.join(PROOFS, "gks_c5.json")) as fh:

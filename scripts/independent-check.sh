@@ -6,7 +6,10 @@
 #      every other file there is malformed and must be rejected by both),
 #   3. a seeded random sample of certificates from a fresh small scan
 #      (`circlet scan` writes verdicts; each sampled pair is re-certified
-#      with `circlet certify`).
+#      with `circlet certify`);
+#   4. every proof certificate committed under results/ (`circlet verify` and
+#      checker/proof_check.py), and fresh proofs of a seeded sample of the
+#      committed congruences and of their perturbations (B + 1).
 # A file fails when the two checkers disagree (accepted vs rejected) or when
 # an expectation above is not met.  Closing line: "N passed, M failed".
 #
@@ -96,16 +99,52 @@ EOF
   done < "$tmp/pairs"
 fi
 
-echo "== proof certificates (circlet prove): circlet verify recomputes them; the Python checker does not check these yet"
+echo "== proof certificates (circlet prove, circlet congruences): circlet verify and checker/proof_check.py"
+# Every committed proof certificate: verify one by one, the Python checker in one run
+# (it computes each family's series once).
+proofs=()
 for f in results/proofs/*.json results/congruences/certificates/*.json; do
-  [ -e "$f" ] || continue
+  [ -e "$f" ] && proofs+=("$f")
+done
+for f in "${proofs[@]}"; do
   if "$CIRCLET" verify "$f" > "$tmp/proof.log" 2>&1; then
     passed=$((passed + 1))
   else
     failed=$((failed + 1))
-    echo "FAIL $f: $(tail -n 1 "$tmp/proof.log")"
+    echo "FAIL circlet verify $f: $(tail -n 1 "$tmp/proof.log")"
   fi
 done
+if pout=$(timeout 900 "$PYTHON" checker/proof_check.py "${proofs[@]}" 2>&1); then
+  passed=$((passed + 1))
+  echo "proof_check.py: ${#proofs[@]} committed proof certificates accepted"
+else
+  failed=$((failed + 1))
+  echo "FAIL proof_check.py over the committed proof certificates: $(echo "$pout" | tail -n 3)"
+fi
+# Fresh proofs: a seeded sample of the committed congruences, each proved again and with
+# its residue B moved by one (usually REFUTED: exercises the counterexample path); both
+# checkers must accept each fresh certificate, whatever its verdict.
+awk -F, 'NR > 2 { gsub(/"/, "", $6); print $6 }' results/congruences/congruences.csv |
+  shuf -n 4 --random-source=<(yes "$SEED") > "$tmp/relations"
+i=0
+while IFS= read -r rel; do
+  moved=$(echo "$rel" | "$PYTHON" -c 'import re,sys; r=sys.stdin.read().strip(); print(re.sub(r"\((\d+)n\+?(\d*)\)", lambda m: "(%sn+%d)" % (m.group(1), int(m.group(2) or 0) + 1), r, count=1))')
+  for r in "$rel" "$moved"; do
+    i=$((i + 1))
+    "$CIRCLET" prove "$r" -o "$tmp/fresh_$i.json" > "$tmp/prove.log" 2>&1
+    if [ ! -s "$tmp/fresh_$i.json" ]; then
+      failed=$((failed + 1)); echo "FAIL circlet prove '$r' wrote no certificate: $(tail -n 1 "$tmp/prove.log")"; continue
+    fi
+    verdict=$(grep -oE '^(PROVED|REFUTED|UNKNOWN)' "$tmp/prove.log" | head -n 1)
+    c=0; "$CIRCLET" verify "$tmp/fresh_$i.json" > /dev/null 2>&1 || c=$?
+    p=0; pout=$(timeout 300 "$PYTHON" checker/proof_check.py "$tmp/fresh_$i.json" 2>&1) || p=$?
+    if [ $c -eq 0 ] && [ $p -eq 0 ]; then
+      passed=$((passed + 1)); echo "ok   fresh $verdict: $r"
+    else
+      failed=$((failed + 1)); echo "FAIL fresh $verdict '$r': verify exit $c, proof_check.py exit $p: $pout"
+    fi
+  done
+done < "$tmp/relations"
 
 echo "seed $SEED"
 echo "$passed passed, $failed failed"

@@ -341,7 +341,7 @@ def main():
     checkers = [("circlet verify", [args.circlet, "verify"])]
     py = args.pycheck
     if os.path.exists(py):
-        checkers.append(("checker/circlet_check.py", [sys.executable, py]))
+        checkers.append((os.path.relpath(py, ROOT), [sys.executable, py]))
     failures, total = [], 0
     with tempfile.TemporaryDirectory(prefix="circlet_mut_") as tmp:
         jobs = []
