@@ -241,7 +241,8 @@ std::vector<ProvedRelation> prove_exact_comparison(const ExactComparison& e, con
         while (std::find(js.begin(), js.end(), missing) != js.end()) ++missing;
         out.push_back(prove_text(f + " = " + k + "*" + g + " for n mod " + std::to_string(p) + " != " + std::to_string(missing)));
         // On the exception class: an extra dilated term that makes the relation hold for all n.
-        const SubProportionality* any = *std::find_if(xs.begin(), xs.end(), [&](const auto* x) { return x->k.str() == k; });
+        const std::string& kk = k;  // a structured binding cannot be captured in C++17 (clang refuses)
+        const SubProportionality* any = *std::find_if(xs.begin(), xs.end(), [&](const auto* x) { return x->k.str() == kk; });
         if (auto fit = find_dilated_term(e, F, ap, G, ap2, p, missing, any->k)) out.push_back(prove_text(fit->relation));
       } else {
         for (long j : js)
