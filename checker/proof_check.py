@@ -1050,7 +1050,7 @@ def valid_date(d):
     y, mo, da, h, mi, se = (int(x) for x in m.groups())
     leap = y % 4 == 0 and (y % 100 != 0 or y % 400 == 0)
     days = [31, 29 if leap else 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31]
-    return 1 <= mo <= 12 and 1 <= da <= days[mo - 1] and h <= 23 and mi <= 59 and se <= 60
+    return 1 <= mo <= 12 and 1 <= da <= days[mo - 1] and h <= 23 and mi <= 59 and se <= 59
 
 
 def first_pass(cert):

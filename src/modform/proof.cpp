@@ -11,6 +11,7 @@
 #include "core/error.hpp"
 #include "core/provenance.hpp"
 #include "modform/eta_product.hpp"
+#include "progression/certificate_reader.hpp"
 #include "series/eta_series.hpp"
 
 namespace circlet {
@@ -369,20 +370,6 @@ bool shell_words(const std::string& s, std::vector<std::string>& out) {
 
 bool is_digits(const std::string& s) { return !s.empty() && s.find_first_not_of("0123456789") == std::string::npos; }
 
-// "YYYY-MM-DDTHH:MM:SSZ" with each field in range (days by month; February 29 in leap years).
-bool is_utc_date(const std::string& d) {
-  if (d.size() != 20 || d[4] != '-' || d[7] != '-' || d[10] != 'T' || d[13] != ':' || d[16] != ':' || d[19] != 'Z')
-    return false;
-  for (int k : {0, 1, 2, 3, 5, 6, 8, 9, 11, 12, 14, 15, 17, 18})
-    if (d[k] < '0' || d[k] > '9') return false;
-  const int y = std::stoi(d.substr(0, 4)), mo = std::stoi(d.substr(5, 2)), da = std::stoi(d.substr(8, 2));
-  const int h = std::stoi(d.substr(11, 2)), mi = std::stoi(d.substr(14, 2)), se = std::stoi(d.substr(17, 2));
-  static const int days[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
-  if (mo < 1 || mo > 12 || da < 1 || h > 23 || mi > 59 || se > 60) return false;
-  const bool leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
-  return da <= days[mo - 1] + (mo == 2 && leap ? 1 : 0);
-}
-
 // The value of option `name` in words[2..] ("--t 2..12" or "--t=2..12"), or "" if absent.
 std::string option_value(const std::vector<std::string>& w, const std::string& name) {
   for (size_t i = 2; i < w.size(); ++i) {
@@ -531,7 +518,7 @@ ProofVerifyReport verify_proof_certificate(const nlohmann::json& cert) {
       if (pv["version"] != kVersion)
         r.failures.push_back(std::string("/provenance/version: not the version of this verifier (") + kVersion +
                              "); re-run the proof with this version");
-      if (!is_utc_date(pv["date"].get<std::string>())) r.failures.push_back("/provenance/date: not a UTC date YYYY-MM-DDTHH:MM:SSZ");
+      if (!is_utc_date_time(pv["date"].get<std::string>())) r.failures.push_back("/provenance/date: not a UTC date YYYY-MM-DDTHH:MM:SSZ");
       const std::string why = check_provenance_command(pv["command"].get<std::string>(), rel);
       if (!why.empty())
         r.failures.push_back("/provenance/command: " + why);

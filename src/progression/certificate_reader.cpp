@@ -101,6 +101,20 @@ json parse_certificate_text(const std::string& text) {
   }
 }
 
+bool is_utc_date_time(const std::string& s) {
+  const std::string shape = "dddd-dd-ddTdd:dd:ddZ";
+  bool ok = s.size() == shape.size();
+  for (size_t i = 0; ok && i < s.size(); ++i)
+    ok = shape[i] == 'd' ? (s[i] >= '0' && s[i] <= '9') : s[i] == shape[i];
+  if (!ok) return false;
+  int y = std::stoi(s.substr(0, 4)), mo = std::stoi(s.substr(5, 2)), d = std::stoi(s.substr(8, 2));
+  int h = std::stoi(s.substr(11, 2)), mi = std::stoi(s.substr(14, 2)), se = std::stoi(s.substr(17, 2));
+  static const int days[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+  bool leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
+  return mo >= 1 && mo <= 12 && d >= 1 && d <= days[mo - 1] + (mo == 2 && leap ? 1 : 0) && h <= 23 && mi <= 59 &&
+         se <= 59;
+}
+
 namespace {
 
 // ---- structure ---------------------------------------------------------------
@@ -248,20 +262,7 @@ int family_rank(const json& j, const std::string& ptr) {
 
 void date(const json& j, const std::string& ptr) {
   const std::string& s = str(j, ptr);
-  // YYYY-MM-DDTHH:MM:SSZ
-  const std::string shape = "dddd-dd-ddTdd:dd:ddZ";
-  bool ok = s.size() == shape.size();
-  for (size_t i = 0; ok && i < s.size(); ++i)
-    ok = shape[i] == 'd' ? (s[i] >= '0' && s[i] <= '9') : s[i] == shape[i];
-  if (ok) {
-    int y = std::stoi(s.substr(0, 4)), mo = std::stoi(s.substr(5, 2)), d = std::stoi(s.substr(8, 2));
-    int h = std::stoi(s.substr(11, 2)), mi = std::stoi(s.substr(14, 2)), se = std::stoi(s.substr(17, 2));
-    static const int days[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
-    bool leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
-    ok = mo >= 1 && mo <= 12 && d >= 1 && d <= days[mo - 1] + (mo == 2 && leap ? 1 : 0) && h <= 23 && mi <= 59 &&
-         se <= 59;
-  }
-  if (!ok) bad(ptr, "'" + s.substr(0, 40) + "' is not a UTC date-time YYYY-MM-DDTHH:MM:SSZ");
+  if (!is_utc_date_time(s)) bad(ptr, "'" + s.substr(0, 40) + "' is not a UTC date-time YYYY-MM-DDTHH:MM:SSZ");
 }
 
 void progression(const json& j, const std::string& ptr) {

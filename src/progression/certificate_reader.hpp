@@ -22,4 +22,8 @@ nlohmann::json parse_certificate_text(const std::string& text);
 /// claims, not the digest). Throws UserError "<pointer>: <what>".
 void check_certificate_schema(const nlohmann::json& cert);
 
+/// "YYYY-MM-DDTHH:MM:SSZ", a valid calendar date-time (leap years; seconds 00..59):
+/// the provenance date of every certificate, progression and proof alike.
+bool is_utc_date_time(const std::string& s);
+
 }  // namespace circlet
