@@ -1,6 +1,9 @@
 // Tests for the `circlet main` command (src/cli/main_cmd.cpp), run as a process.
 #include <catch2/catch.hpp>
 
+#include <arb.h>
+#include <flint/fmpq.h>
+
 #include "cli_run.hpp"
 #include <array>
 #include <cstdio>
@@ -91,4 +94,39 @@ TEST_CASE("circlet main: factoring a huge X gives up under --factor-timeout", "[
   Run big = run("main c9 --at 1" + std::string(30, '0'));
   CHECK(big.status == 0);
   CHECK(big.out.find("(exact rational)") != std::string::npos);
+}
+
+TEST_CASE("circlet main: weight 7/2 above the Bernoulli limit is exact (theta route); --l-value-terms bounds it",
+          "[mainterm][cli]") {
+  // The theta route's values are checked against the Bernoulli route and PARI/GP in
+  // tests/mainterm_dirichlet_l_theta.cpp; here: the command uses it, says so, and the
+  // Euler-product ball it falls back to under a small budget contains the exact value.
+  Run exact = run("main c8 --at 10^8 --explain");
+  REQUIRE(exact.status == 0);
+  CHECK(exact.out.find("(exact rational)") != std::string::npos);
+  CHECK(exact.out.find("by the theta functional equation") != std::string::npos);
+  Run ball = run("main c8 --at 10^8 --l-value-terms 1000");
+  REQUIRE(ball.status == 0);
+  CHECK(ball.out.find("the exact theta route needs") != std::string::npos);
+  auto main_field = [](const std::string& out) {
+    const size_t at = out.find("main term   ");
+    REQUIRE(at != std::string::npos);
+    const size_t from = at + 12;
+    const size_t to = out[from] == '[' ? out.find(']', from) + 1 : out.find(' ', from);
+    return out.substr(from, to - from);
+  };
+  const std::string q = main_field(exact.out), b = main_field(ball.out);
+  INFO("exact " << q << ", ball " << b);
+  fmpq_t v;
+  fmpq_init(v);
+  REQUIRE(fmpq_set_str(v, q.c_str(), 10) == 0);
+  arb_t x, y;
+  arb_init(x);
+  arb_init(y);
+  arb_set_fmpq(x, v, 256);
+  REQUIRE(arb_set_str(y, b.c_str(), 256) == 0);
+  CHECK(arb_contains(y, x));
+  arb_clear(x);
+  arb_clear(y);
+  fmpq_clear(v);
 }

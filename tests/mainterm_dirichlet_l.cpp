@@ -1,57 +1,13 @@
 // Tests for src/mainterm/dirichlet_l.hpp.
 #include "mainterm/dirichlet_l.hpp"
 
-#include <acb.h>
-#include <acb_dirichlet.h>
-#include <dirichlet.h>
-
 #include <catch2/catch.hpp>
 #include <sstream>
 
+#include "mainterm_dirichlet_reference.hpp"
 #include "mainterm_gp.hpp"
 
 using namespace circlet;
-
-namespace {
-
-// L(k, χ_d) from Arb's acb_dirichlet_l (an independent implementation: Hurwitz
-// zeta sums), finding the Conrey character whose values equal (d/a).
-bool arb_reference_l(arb_t res, slong d, ulong k, slong prec) {
-  ulong f = (ulong)(d < 0 ? -d : d);
-  dirichlet_group_t G;
-  dirichlet_group_init(G, f);
-  dirichlet_char_t chi;
-  dirichlet_char_init(chi, G);
-  bool found = false;
-  dirichlet_char_one(chi, G);
-  do {
-    bool ok = true;
-    for (ulong a = 1; a <= f && ok; ++a) {
-      ulong e = dirichlet_chi(G, chi, a);
-      int v = e == DIRICHLET_CHI_NULL ? 0 : (e == 0 ? 1 : (2 * e == G->expo ? -1 : 2));
-      ok = (v == kronecker_symbol(d, a));
-    }
-    if (ok) {
-      found = true;
-      break;
-    }
-  } while (dirichlet_char_next(chi, G) >= 0);
-  if (found) {
-    acb_t s, z;
-    acb_init(s);
-    acb_init(z);
-    acb_set_ui(s, k);
-    acb_dirichlet_l(z, s, G, chi, prec);
-    arb_set(res, acb_realref(z));
-    acb_clear(s);
-    acb_clear(z);
-  }
-  dirichlet_char_clear(chi);
-  dirichlet_group_clear(G);
-  return found;
-}
-
-}  // namespace
 
 TEST_CASE("kronecker symbol: small table and agreement with FLINT", "[mainterm][dirichlet_l]") {
   // (−4/n) = 0, 1, 0, −1 for n ≡ 0..3 (mod 4); (5/2) = −1; (−7/2) = 1; (8/3) = −1.
@@ -107,7 +63,7 @@ TEST_CASE("exact L-values lie in acb_dirichlet_l balls", "[mainterm][dirichlet_l
       if (d == 1 && k == 1) continue;
       Arb exact, ref;
       dirichlet_l_from_rational(exact, dirichlet_l_rational(Fmpz(d), k), Fmpz(d), k, prec);
-      REQUIRE(arb_reference_l(ref, d, k, prec));
+      REQUIRE(testing::arb_reference_l(ref, d, k, prec));
       INFO("d = " << d << ", k = " << k << ": " << exact.str() << " vs " << ref.str());
       CHECK(arb_overlaps(exact, ref));
       CHECK(arb_rel_accuracy_bits(exact) > prec - 10);
@@ -178,7 +134,7 @@ TEST_CASE("generalised Bernoulli numbers: the 128-bit and the big-integer sums a
       if ((d > 0) != (k % 2 == 0)) continue;
       Arb exact, ref;
       dirichlet_l_from_rational(exact, dirichlet_l_rational(Fmpz(d), k), Fmpz(d), k, 128);
-      REQUIRE(arb_reference_l(ref, d, k, 128));
+      REQUIRE(testing::arb_reference_l(ref, d, k, 128));
       INFO("d = " << d << ", k = " << k);
       CHECK(arb_overlaps(exact, ref));
     }

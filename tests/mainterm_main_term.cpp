@@ -132,6 +132,62 @@ TEST_CASE("main term: sums of squares r_S = M for S = 5..8, Jacobi for r_4 and r
   }
 }
 
+TEST_CASE("main term: r_5 = M and r_7 = M with every L-value from the theta route", "[mainterm][main_term]") {
+  // As above (Hardy 1920), now with the Bernoulli route switched off: the theta
+  // functional equation and the rounding must give the same exact L-values.
+  const long N = 400;
+  for (int S : {5, 7}) {
+    std::vector<int64_t> r = squares_counts(S, N);
+    QuadraticModel m = model_of(("sq" + std::to_string(S)).c_str());
+    MainTermOptions o;
+    o.max_exact_conductor = 1;  // ζ(k) (a square D) stays on the Bernoulli route
+    o.max_theta_terms = 1e9;
+    o.theta_threads = 1;
+    for (long n = 1; n <= N; ++n) {
+      INFO("S = " << S << ", n = " << n);
+      MainTerm t = main_term(m, Fmpz(n), 64, o);
+      REQUIRE(t.exact.has_value());
+      REQUIRE(*t.exact == Fmpq(r[n]));
+      if (!t.parts.correction.is_zero() && !fmpz_is_pm1(t.parts.discriminant.get()))
+        REQUIRE(t.parts.L_route.find("theta functional equation") != std::string::npos);
+    }
+  }
+}
+
+TEST_CASE("main term: c_8 above the Bernoulli limit is exact by the theta route and equals the Bernoulli value",
+          "[mainterm][main_term]") {
+  // n ≥ 2·10^5 with conductor above the default limit 2·10^6 (about 6.4·10^6 when X is squarefree).
+  QuadraticModel m = model_of("c8");
+  int found = 0;
+  for (long n = 200000; found < 3; ++n) {
+    {
+      MainTermOptions probe;
+      probe.skip_l_value = true;
+      MainTerm t = main_term(m, Fmpz(n), 64, probe);
+      if (fmpz_cmpabs(t.parts.discriminant.get(), Fmpz(2000000).get()) <= 0) continue;
+    }
+    ++found;
+    MainTermOptions theta;
+    theta.max_theta_terms = 1e8;
+    MainTermOptions bernoulli;
+    bernoulli.max_exact_conductor = 100000000;
+    MainTermOptions euler;
+    MainTerm a = main_term(m, Fmpz(n), 128, theta);
+    MainTerm b = main_term(m, Fmpz(n), 128, bernoulli);
+    MainTerm c = main_term(m, Fmpz(n), 128, euler);
+    INFO("n = " << n << ", " << a.parts.L_route);
+    REQUIRE(a.exact.has_value());
+    REQUIRE(b.exact.has_value());
+    CHECK(*a.exact == *b.exact);
+    CHECK(a.parts.L_route.find("theta functional equation") != std::string::npos);
+    // The default (no theta budget) stays the Euler-product ball, which contains the exact value.
+    REQUIRE_FALSE(c.exact.has_value());
+    Arb e;
+    arb_set_fmpq(e, a.exact->get(), 128);
+    CHECK(arb_contains(c.ball, e));
+  }
+}
+
 namespace {
 
 void check_c4(long N) {

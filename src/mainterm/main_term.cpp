@@ -13,6 +13,7 @@
 #include "core/error.hpp"
 #include "mainterm/class_number.hpp"
 #include "mainterm/dirichlet_l.hpp"
+#include "mainterm/dirichlet_l_theta.hpp"
 #include "mainterm/singular_integral.hpp"
 #include "quadratic/local_density.hpp"
 
@@ -157,7 +158,18 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
   // cheaper than the O(f) Bernoulli sum above a small conductor.
   const bool divisor_sum_route = !even && s == 2 && fmpz_cmp_ui(f.get(), 20000) > 0 && fmpz_bits(f.get()) <= 62 &&
                                  dirichlet_l2_steps(f) <= options.max_divisor_sum_steps;
-  const bool exact_route = even || class_number_route || divisor_sum_route ||
+  // Weight ≥ 7/2 above the Bernoulli limit: the theta functional equation, rounded to the
+  // proven denominator (dirichlet_l_theta.hpp), when the user's term limit allows it.
+  std::optional<Fmpq> theta_R;
+  double theta_terms = 0;
+  if (!even && s >= 2 && !divisor_sum_route && !C.is_zero() && !options.skip_l_value &&
+      fmpz_cmp_ui(f.get(), options.max_exact_conductor) > 0 && !fmpz_is_one(f.get()) && fmpz_bits(f.get()) <= 60 &&
+      (fmpz_sgn(P.discriminant.get()) < 0) == (s % 2 == 1) && options.max_theta_terms > 0) {
+    theta_terms = dirichlet_l_theta_terms(P.discriminant, s);
+    if (theta_terms <= options.max_theta_terms)
+      theta_R = dirichlet_l_rational_theta(P.discriminant, s, options.theta_threads);
+  }
+  const bool exact_route = even || class_number_route || divisor_sum_route || theta_R ||
                            fmpz_cmp_ui(f.get(), options.max_exact_conductor) <= 0;
   const bool need_balls = options.with_parts || (!exact_route && !options.skip_l_value);
   if (need_balls) singular_integral(P.sigma_inf.get(), r, model.det_gram, P.X, prec);
@@ -166,9 +178,13 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
     Fmpq R = even                 ? ed->R
              : class_number_route ? hurwitz_class_number(f)
              : divisor_sum_route  ? dirichlet_l2_rational_divisor_sums(P.discriminant)
+             : theta_R            ? *theta_R
                                   : dirichlet_l_rational(P.discriminant, s);
     P.L_rational = R;
-    P.L_route = divisor_sum_route
+    P.L_route = theta_R
+                    ? "exact: L(" + std::to_string(s) + ", chi) by the theta functional equation (" +
+                          std::to_string((long)theta_terms) + " terms), rounded to the denominator of B_{k,chi}"
+                : divisor_sum_route
                     ? "exact: L(2, chi) from Siegel's divisor sums for zeta_K(-1), K = Q(sqrt(" + f.str() + ")) (" +
                           std::to_string((long)dirichlet_l2_steps(f)) + " sieve steps)"
                 : class_number_route
@@ -230,6 +246,9 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
     dirichlet_l_euler(P.L_value.get(), P.discriminant, s, Pmax, prec);
     P.accuracy_limited = Pmax >= options.max_euler_prime;
     P.L_route = "ball: Euler product over p ≤ " + std::to_string(Pmax) + " with rigorous tail bound";
+    if (theta_terms > options.max_theta_terms && options.max_theta_terms > 0)
+      P.L_route += " (the exact theta route needs " + std::to_string((long)theta_terms) +
+                   " terms, above --l-value-terms " + std::to_string((long)options.max_theta_terms) + ")";
   } else {
     arb_indeterminate(P.L_value.get());
     P.L_route = "unavailable: L(1, χ) with conductor " + f.str() + " above the exact-route limit";

@@ -73,6 +73,14 @@ struct MainTermOptions {
   double max_class_number_steps = 3e8;
   /// Weight 5/2: largest sieve length (≈ sqrt(f)/2) for the exact L(2, χ) by divisor sums.
   double max_divisor_sum_steps = 3e8;
+  /// Weight ≥ 7/2 (and 5/2 beyond the divisor-sum route): largest number of
+  /// theta-series terms (dirichlet_l_theta_terms) for an exact L(k, χ) above
+  /// max_exact_conductor. 0 (the default) keeps the Euler-product ball: callers
+  /// that evaluate many rows choose it; `main --at` and `arcs --at` set it
+  /// (their --l-value-terms).
+  double max_theta_terms = 0;
+  /// Threads of the theta route.
+  int theta_threads = 2;
   /// Largest prime of the Euler product for the ball route.
   ulong max_euler_prime = 10000000;
   /// Compute σ_∞ and the L-value balls even on the exact path (for --explain).
