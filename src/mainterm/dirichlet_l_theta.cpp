@@ -140,10 +140,14 @@ void sum_range(const ThetaPlan& p, ulong lo, ulong hi, PartialSums& out) {
   std::vector<ulong> coef(p.alpha);
   coef[0] = 1;
   for (ulong j = 1; j < p.alpha; ++j) coef[j] = coef[j - 1] * (p.alpha - j);
-  Arb pi, kap1, kap2, inv1, inv2, ex, g1, q1, ey, g2, q2, r0, eyh, t, u, poly, term, y, delta, c, rung, acc;
+  Arb pi, kap1, kap2, inv1, inv2, ex, g1, q1, ey, g2, q2, r0, eyh, t, u, poly, term, y, delta, w, eta, rung, acc;
   const slong b2 = 1 - 2 * (slong)p.m;  // 2β0, β0 = 1/2 − m
   // The sums are accumulated at the precision of the largest term (n = 1), the terms at their own.
   const slong sum_prec = block_prec(p, std::max(log2_term1(p, 1), log2_term2(p, 1, (double)p.N2)));
+  // 1/j! for the Taylor terms, at the highest precision any block uses.
+  std::vector<Arb> invfact(400);
+  arb_one(invfact[0]);
+  for (size_t j = 1; j < invfact.size(); ++j) arb_div_ui(invfact[j], invfact[j - 1], j, sum_prec + 64);
   for (ulong ns = lo; ns <= hi;) {
     const ulong len = ns < 64 ? 1 : std::min<ulong>(4096, ns / 4);
     const ulong ne = std::min(hi, ns + len - 1);
@@ -195,12 +199,17 @@ void sum_range(const ThetaPlan& p, ulong lo, ulong hi, PartialSums& out) {
           if (n != nh) {
             // Taylor from y_nh to y_n: E(β0, y+δ) = Σ_j (−δ)^j/j! E(β0+j, y) + R_J,
             // |R_J| ≤ δ^J/J! E(β0+J, y); rungs E(β+1) = (β E(β) + e^{−y})/y, 1/y = inv2/nh².
-            arb_div_ui(u, inv2, nh * nh, wp2);
+            // With σ_j = (−δ)^j E(β0+j, y) and η_j = (−δ)^j e^{−y}, the rungs read
+            //   σ_{j+1} = w ((β0+j) σ_j + η_j),  η_{j+1} = −δ η_j,  w = −δ/y = −(n² − nh²)/nh²,
+            // and the Taylor terms are σ_j/j!.
+            arb_set_ui(w, n * n - nh * nh);
+            arb_neg(w, w);
+            arb_div_ui(w, w, nh * nh, wp2);
             arb_mul_ui(delta, kap2, n * n - nh * nh, wp2);
             arb_neg(delta, delta);
             arb_set(rung, r0);
+            arb_set(eta, eyh);
             arb_set(acc, r0);
-            arb_one(c);
             mag_t lim, tm;
             mag_init(lim);
             mag_init(tm);
@@ -209,18 +218,16 @@ void sum_range(const ThetaPlan& p, ulong lo, ulong hi, PartialSums& out) {
             const slong acc_exp = arf_abs_bound_lt_2exp_si(arb_midref(acc.get()));
             slong pj = wp2;  // later rungs contribute less: each is computed to the bits it needs
             for (ulong j = 0;; ++j) {
-              CIRCLET_ASSERT(j < 2000, "dirichlet theta route: Taylor step did not converge");
-              // rung ← E(β0 + j + 1, y) = ((β0 + j) rung + e^{−y}) / y
+              CIRCLET_ASSERT(j + 1 < invfact.size(), "dirichlet theta route: Taylor step did not converge");
               arb_mul_si(rung, rung, b2 + 2 * (slong)j, pj);
               arb_mul_2exp_si(rung, rung, -1);
-              arb_add(rung, rung, eyh, pj);
-              arb_mul(rung, rung, u, pj);
-              arb_mul(c, c, delta, pj);
-              arb_div_ui(c, c, j + 1, pj);
-              arb_mul(t, c, rung, pj);
+              arb_add(rung, rung, eta, pj);
+              arb_mul(rung, rung, w, pj);  // σ_{j+1}
+              arb_mul(eta, eta, delta, pj);
+              arb_mul(t, rung, invfact[j + 1], pj);  // (−δ)^{j+1}/(j+1)! E(β0+j+1, y)
               arb_get_mag(tm, t);
               if (mag_cmp(tm, lim) <= 0) {
-                arb_add_error_mag(acc, tm);  // Lagrange remainder, |R_{j+1}| ≤ |c_{j+1} E(β0+j+1, y)|
+                arb_add_error_mag(acc, tm);  // Lagrange remainder, |R_{j+1}| ≤ δ^{j+1}/(j+1)! E(β0+j+1, y)
                 break;
               }
               arb_add(acc, acc, t, wp2);
