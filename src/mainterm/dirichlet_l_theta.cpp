@@ -8,6 +8,8 @@
 
 #include <algorithm>
 #include <atomic>
+#include <exception>
+#include <mutex>
 #include <cmath>
 #include <thread>
 #include <vector>
@@ -301,14 +303,23 @@ void lambda_from_plan(arb_t res, const ThetaPlan& p, int threads) {
   for (ulong lo = 1; lo <= p.N1; lo += step) chunks.emplace_back(lo, std::min(p.N1, lo + step - 1));
   std::vector<PartialSums> part(chunks.size());
   std::atomic<size_t> next{0};
+  std::exception_ptr failure;  // an assertion in a helper thread is rethrown here
+  std::mutex failure_mu;
   auto worker = [&] {
-    for (size_t c; (c = next.fetch_add(1)) < chunks.size();) sum_range(p, chunks[c].first, chunks[c].second, part[c]);
+    try {
+      for (size_t c; (c = next.fetch_add(1)) < chunks.size();) sum_range(p, chunks[c].first, chunks[c].second, part[c]);
+    } catch (...) {
+      std::lock_guard<std::mutex> lock(failure_mu);
+      if (!failure) failure = std::current_exception();
+      next = chunks.size();
+    }
   };
   const int nt = std::max(1, std::min<int>(threads, (int)chunks.size()));
   std::vector<std::thread> pool;
   for (int t = 1; t < nt; ++t) pool.emplace_back(worker);
   worker();
   for (auto& th : pool) th.join();
+  if (failure) std::rethrow_exception(failure);
   const slong prec = std::max<slong>(64, (slong)std::ceil(log2_term1(p, 1) - p.log2_tau) + 40);
   Arb S1, S2, pi, kap, tl;
   for (const PartialSums& ps : part) {
