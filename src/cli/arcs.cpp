@@ -190,7 +190,7 @@ const Registration registration{CommandSpec{
                       "weight 3/2: largest class-number sieve for the main term (about sqrt(|D|/3) steps; default 3e8)");
       cmd->add_option("--l-value-terms", opt->l_value_terms,
                       "weight >= 7/2: largest theta series for an exact L(k, chi) above conductor 2e6 "
-                      "(default 4e7 terms, about 30 s on two cores); above it the L-value is an Euler-product ball");
+                      "(default 4e7 terms, about 15 s on two cores); above it the L-value is an Euler-product ball");
       cmd->add_flag("--json", opt->json, "JSON output with provenance instead of CSV");
       cmd->add_option("-o,--output", opt->output, "write to FILE (atomically) instead of standard output");
       cmd->callback([opt]() { run_arcs(*opt); });

@@ -27,6 +27,7 @@
 #include "cli/private_factoring.hpp"
 #include "core/atomic_file.hpp"
 #include "core/error.hpp"
+#include "core/progress_line.hpp"
 #include "core/provenance.hpp"
 #include "core/resource_guard.hpp"
 #include "family/family.hpp"
@@ -187,7 +188,10 @@ void run_single_direct(const MainOptions& opt, const Family& family, const Quadr
   MainTermOptions mo;
   mo.max_class_number_steps = opt.class_number_steps;
   mo.max_theta_terms = opt.l_value_terms;
+  ProgressLine line("main");
+  mo.theta_progress = [&line](double f) { line.update("L-value by the theta series", f); };
   CertifiedMainTerm c = main_term_certified(model, n, digits_of(opt), 4096, mo);
+  line.finish();
   const MainTerm& m = c.term;
   std::string status = m.exact ? "exact rational"
                                : (c.certified ? "ball, " + std::to_string(digits_of(opt)) + " digits certified"
@@ -367,7 +371,7 @@ const Registration registration{CommandSpec{
                       "weight 3/2: largest class-number sieve (about sqrt(|D|/3) steps; default 3e8, a few seconds)");
       cmd->add_option("--l-value-terms", opt->l_value_terms,
                       "weight >= 7/2: largest theta series for an exact L(k, chi) above conductor 2e6 "
-                      "(default 4e7 terms, about 30 s on two cores); above it the L-value is an Euler-product ball");
+                      "(default 4e7 terms, about 15 s on two cores); above it the L-value is an Euler-product ball");
       cmd->add_flag("--json", opt->json, "JSON output with provenance instead of text/CSV");
       cmd->add_option("-o,--output", opt->output, "write to FILE (atomically) instead of standard output");
       cmd->callback([opt]() { run_main(*opt); });

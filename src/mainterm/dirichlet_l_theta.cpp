@@ -294,7 +294,7 @@ void tail_ball(arb_t res, const arb_t kappa, ulong M, ulong a, ulong offset, slo
 //   E(1/2 − m, y) ≤ e^{−y}/y (u^{β−1} ≤ 1),
 //   Σ_{n≥M} n^a e^{−κn²} ≤ M^a e^{−κM²} + ∫_M^∞ t^a e^{−κt²} dt ≤ e^{−κM²}(M^a + M^{a−1}/(2κ))
 // (the summand decreases for 2κM² > a; ∫_M^∞ e^{−κt²} ≤ ∫_M^∞ (t/M) e^{−κt²}).
-void lambda_from_plan(arb_t res, const ThetaPlan& p, int threads) {
+void lambda_from_plan(arb_t res, const ThetaPlan& p, int threads, const ThetaProgress& progress) {
   // Chunks of [1, N1] taken by the threads from a shared counter (the cost per
   // term varies with n: precision, and the half-integral series ends at N2);
   // summed in chunk order, so the ball does not depend on the scheduling.
@@ -302,12 +302,27 @@ void lambda_from_plan(arb_t res, const ThetaPlan& p, int threads) {
   const ulong step = std::max<ulong>(1 << 14, p.N1 / 64);
   for (ulong lo = 1; lo <= p.N1; lo += step) chunks.emplace_back(lo, std::min(p.N1, lo + step - 1));
   std::vector<PartialSums> part(chunks.size());
+  // Progress by estimated cost: a half-integral step costs about ten integral terms.
+  std::vector<double> cost(chunks.size());
+  double total_cost = 0, done_cost = 0;
+  for (size_t c = 0; c < chunks.size(); ++c) {
+    const ulong lo = chunks[c].first, hi = chunks[c].second;
+    cost[c] = (double)(hi - lo + 1) + 9.0 * (double)(lo <= p.N2 ? std::min(hi, p.N2) - lo + 1 : 0);
+    total_cost += cost[c];
+  }
   std::atomic<size_t> next{0};
   std::exception_ptr failure;  // an assertion in a helper thread is rethrown here
   std::mutex failure_mu;
   auto worker = [&] {
     try {
-      for (size_t c; (c = next.fetch_add(1)) < chunks.size();) sum_range(p, chunks[c].first, chunks[c].second, part[c]);
+      for (size_t c; (c = next.fetch_add(1)) < chunks.size();) {
+        sum_range(p, chunks[c].first, chunks[c].second, part[c]);
+        if (progress) {
+          std::lock_guard<std::mutex> lock(failure_mu);
+          done_cost += cost[c];
+          progress(std::min(1.0, done_cost / total_cost));
+        }
+      }
     } catch (...) {
       std::lock_guard<std::mutex> lock(failure_mu);
       if (!failure) failure = std::current_exception();
@@ -388,18 +403,19 @@ double dirichlet_l_theta_terms(const Fmpz& d, ulong k) {
   return (double)(p.N1 + p.N2);
 }
 
-void dirichlet_lambda_theta(arb_t res, const Fmpz& d, ulong k, double log2_abs_error, int threads) {
+void dirichlet_lambda_theta(arb_t res, const Fmpz& d, ulong k, double log2_abs_error, int threads,
+                            const ThetaProgress& progress) {
   const ThetaPlan p = make_plan(d, k, log2_abs_error);
-  lambda_from_plan(res, p, threads);
+  lambda_from_plan(res, p, threads, progress);
 }
 
-void dirichlet_l_theta(arb_t res, const Fmpz& d, ulong k, slong bits, int threads) {
+void dirichlet_l_theta(arb_t res, const Fmpz& d, ulong k, slong bits, int threads, const ThetaProgress& progress) {
   Arb lambda;
-  dirichlet_lambda_theta(lambda, d, k, log2_lambda(d, k) - (double)bits - 2, threads);
+  dirichlet_lambda_theta(lambda, d, k, log2_lambda(d, k) - (double)bits - 2, threads, progress);
   l_from_lambda(res, lambda, d, k, bits + 64);
 }
 
-std::optional<Fmpq> dirichlet_l_rational_theta(const Fmpz& d, ulong k, int threads) {
+std::optional<Fmpq> dirichlet_l_rational_theta(const Fmpz& d, ulong k, int threads, const ThetaProgress& progress) {
   const Fmpz D = bernoulli_denominator_lcm(k);
   Fmpz f;
   fmpz_abs(f.get(), d.get());
@@ -407,7 +423,7 @@ std::optional<Fmpq> dirichlet_l_rational_theta(const Fmpz& d, ulong k, int threa
     // Enough relative accuracy that the integer's ball is narrower than 1/32.
     const slong bits = (slong)std::ceil(log2_rounding_integer(d, k)) + 6 + 32 * attempt;
     Arb L, t, pi;
-    dirichlet_l_theta(L, d, k, bits, threads);
+    dirichlet_l_theta(L, d, k, bits, threads, progress);
     // D f B_{k,χ} = D f · f^{k−1} k! L sqrt(f) / (2^{k−1} π^k) · (−1)^{1+⌊k/2⌋}.
     const slong prec = bits + 64;
     arb_const_pi(pi, prec);

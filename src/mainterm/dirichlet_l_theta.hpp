@@ -31,11 +31,15 @@
 // D_k = lcm of the denominators of B_0, …, B_k. The ball for L(k, χ) gives a ball
 // for that integer; when it contains exactly one integer, B_{k,χ} (and R with
 // L = R π^k / sqrt f) is exact.
+#include <functional>
 #include <optional>
 
 #include "core/flint_types.hpp"
 
 namespace circlet {
+
+/// Fraction of the series done, in [0, 1]; called from worker threads, serialised.
+using ThetaProgress = std::function<void(double)>;
 
 /// The number of series terms (both sides) dirichlet_l_rational_theta would sum for (d, k).
 double dirichlet_l_theta_terms(const Fmpz& d, ulong k);
@@ -44,14 +48,16 @@ double dirichlet_l_theta_terms(const Fmpz& d, ulong k);
 /// at most about 2^{log2_abs_error} (tails and rounding; guaranteed enclosure
 /// whatever the radius). Requires d fundamental, |d| > 1, χ_d(−1) = (−1)^k, k ≥ 2,
 /// |d| < 2^62. Runs on `threads` threads.
-void dirichlet_lambda_theta(arb_t res, const Fmpz& d, ulong k, double log2_abs_error, int threads = 2);
+void dirichlet_lambda_theta(arb_t res, const Fmpz& d, ulong k, double log2_abs_error, int threads = 2,
+                            const ThetaProgress& progress = {});
 
 /// L(k, χ_d) by the theta route to about `bits` bits of relative accuracy.
-void dirichlet_l_theta(arb_t res, const Fmpz& d, ulong k, slong bits, int threads = 2);
+void dirichlet_l_theta(arb_t res, const Fmpz& d, ulong k, slong bits, int threads = 2, const ThetaProgress& progress = {});
 
 /// R with L(k, χ_d) = R π^k / sqrt(f), exact, by the theta route and rounding
 /// (same contract as dirichlet_l_rational). nullopt only if the ball stayed too
 /// wide to round after one retry at higher accuracy (not expected).
-std::optional<Fmpq> dirichlet_l_rational_theta(const Fmpz& d, ulong k, int threads = 2);
+std::optional<Fmpq> dirichlet_l_rational_theta(const Fmpz& d, ulong k, int threads = 2,
+                                               const ThetaProgress& progress = {});
 
 }  // namespace circlet

@@ -167,7 +167,7 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
       (fmpz_sgn(P.discriminant.get()) < 0) == (s % 2 == 1) && options.max_theta_terms > 0) {
     theta_terms = dirichlet_l_theta_terms(P.discriminant, s);
     if (theta_terms <= options.max_theta_terms)
-      theta_R = dirichlet_l_rational_theta(P.discriminant, s, options.theta_threads);
+      theta_R = dirichlet_l_rational_theta(P.discriminant, s, options.theta_threads, options.theta_progress);
   }
   const bool exact_route = even || class_number_route || divisor_sum_route || theta_R ||
                            fmpz_cmp_ui(f.get(), options.max_exact_conductor) <= 0;

@@ -24,6 +24,7 @@
 //    exactly at cost ≈ sqrt(f/3) (class_number.hpp): M(n) is exact at every n
 //    whose cost is below MainTermOptions::max_class_number_steps; beyond it
 //    main_term refuses with a UserError that states the cost and the option.
+#include <functional>
 #include <optional>
 #include <string>
 #include <vector>
@@ -81,6 +82,8 @@ struct MainTermOptions {
   double max_theta_terms = 0;
   /// Threads of the theta route.
   int theta_threads = 2;
+  /// Progress of the theta route (fraction done), e.g. for a progress line; may be empty.
+  std::function<void(double)> theta_progress;
   /// Largest prime of the Euler product for the ball route.
   ulong max_euler_prime = 10000000;
   /// Compute σ_∞ and the L-value balls even on the exact path (for --explain).
