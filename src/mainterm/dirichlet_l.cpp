@@ -238,6 +238,14 @@ Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
   auto sieve = [&](ulong jlo, ulong jhi, const std::vector<Root>& roots, u128& total) {
     const ulong S = std::min<ulong>(1 << 16, jhi - jlo + 1);  // small calls: no large allocation
     std::vector<ulong> rem(S), val(S);
+    // The next j ≥ L of each root class (2 per prime; ULONG_MAX when the roots coincide),
+    // carried from block to block instead of recomputed with two divisions per block.
+    std::vector<ulong> next(2 * roots.size());
+    for (size_t r = 0; r < roots.size(); ++r) {
+      const ulong p = roots[r].p, off = jlo % p;
+      next[2 * r] = jlo + (roots[r].j1 + p - off) % p;
+      next[2 * r + 1] = roots[r].j2 == roots[r].j1 ? ~UWORD(0) : jlo + (roots[r].j2 + p - off) % p;
+    }
     for (ulong L = jlo; L <= jhi; L += S) {
       const ulong R = std::min<ulong>(jhi, L + S - 1);
       const ulong len = R - L + 1;
@@ -249,12 +257,11 @@ Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
         rem[i] = m;
         val[i] = (UWORD(2) << v) - 1;
       }
-      for (const Root& rt : roots) {
-        const ulong p = rt.p;
+      for (size_t r = 0; r < roots.size(); ++r) {
+        const ulong p = roots[r].p;
         for (int w = 0; w < 2; ++w) {
-          if (w == 1 && rt.j2 == rt.j1) break;
-          const ulong jr = w == 0 ? rt.j1 : rt.j2;
-          for (ulong j = L + (jr + p - L % p) % p; j <= R; j += p) {  // j ≡ jr (mod p), j ≥ L
+          ulong j = next[2 * r + w];
+          for (; j <= R; j += p) {  // j ≡ j1 or j2 (mod p), L ≤ j ≤ R
             const ulong i = j - L;
             ulong x = rem[i] / p, pe = p, sig = 1 + p;
             while (x % p == 0) {
@@ -265,6 +272,7 @@ Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
             rem[i] = x;
             val[i] *= sig;
           }
+          next[2 * r + w] = j;
         }
       }
       for (ulong i = 0; i < len; ++i) {
