@@ -214,6 +214,7 @@ Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
   const ulong Pmax = n_sqrt(d / 4) + 1;
   struct Root {
     ulong p, j1, j2;  // j ≡ j1 or j2 (mod p) ⟺ p | m_b
+    ulong inv, lim;   // p^{−1} mod 2^64 and ⌊(2^64 − 1)/p⌋: exact division and divisibility by multiplication
   };
   // Roots of b² ≡ d (mod p) for the odd primes p ≤ Pmax, in two halves on two threads.
   auto find_roots = [&](ulong plo, ulong phi, std::vector<Root>& out) {
@@ -230,7 +231,9 @@ Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
       // b0 + 2j ≡ ±r (mod p) ⟺ j ≡ (±r − b0)/2 (mod p)
       const ulong j1 = n_mulmod2((r + p - b0 % p) % p, inv2, p);
       const ulong j2 = n_mulmod2(((p - r) % p + p - b0 % p) % p, inv2, p);
-      out.push_back({p, j1, j2});
+      ulong inv = p;  // Newton's iteration doubles the correct low bits: 5 steps reach 64 from 3
+      for (int it = 0; it < 5; ++it) inv *= 2 - p * inv;
+      out.push_back({p, j1, j2, inv, ~UWORD(0) / p});
     }
     n_primes_clear(it);
   };
@@ -263,9 +266,13 @@ Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
           ulong j = next[2 * r + w];
           for (; j <= R; j += p) {  // j ≡ j1 or j2 (mod p), L ≤ j ≤ R
             const ulong i = j - L;
-            ulong x = rem[i] / p, pe = p, sig = 1 + p;
-            while (x % p == 0) {
-              x /= p;
+            // p | rem[i] here; for odd p and p | x, x/p = x·p^{−1} mod 2^64, and
+            // p | x ⟺ x·p^{−1} mod 2^64 ≤ ⌊(2^64 − 1)/p⌋ (T. Granlund, P. Montgomery,
+            // "Division by invariant integers using multiplication", PLDI 1994; common practice).
+            const ulong inv = roots[r].inv, lim = roots[r].lim;
+            ulong x = rem[i] * inv, pe = p, sig = 1 + p;
+            for (ulong y = x * inv; y <= lim; y = x * inv) {
+              x = y;
               pe *= p;
               sig += pe;
             }
