@@ -268,7 +268,7 @@ Fmpq dirichlet_l2_rational_divisor_sums(const Fmpz& dz) {
             const ulong i = j - L;
             // p | rem[i] here; for odd p and p | x, x/p = x·p^{−1} mod 2^64, and
             // p | x ⟺ x·p^{−1} mod 2^64 ≤ ⌊(2^64 − 1)/p⌋ (T. Granlund, P. Montgomery,
-            // "Division by invariant integers using multiplication", PLDI 1994; common practice).
+            // "Division by invariant integers using multiplication", PLDI 1994, quoted from memory; docs/MATH.md §5).
             const ulong inv = roots[r].inv, lim = roots[r].lim;
             ulong x = rem[i] * inv, pe = p, sig = 1 + p;
             for (ulong y = x * inv; y <= lim; y = x * inv) {
