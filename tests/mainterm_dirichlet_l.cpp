@@ -115,12 +115,7 @@ TEST_CASE("exact L-values agree with PARI/GP lfun", "[mainterm][dirichlet_l][gp]
     if (!is_fundamental_discriminant(d)) continue;
     Arb exact, ref;
     dirichlet_l_from_rational(exact, dirichlet_l_rational(d, c.k), d, c.k, 160);
-    // gp prints 45 significant digits; allow 1e-40 relative.
-    arb_set_str(ref, line.c_str(), 160);
-    Arb rad;
-    arb_abs(rad, ref);
-    arb_mul_2exp_si(rad, rad, -130);
-    arb_add_error(ref, rad);
+    testing::gp_decimal_ball(ref, line);
     INFO("d = " << c.d << ", k = " << c.k << ", gp: " << line << ", ours: " << exact.str(40));
     CHECK(arb_overlaps(exact, ref));
   }
@@ -189,13 +184,9 @@ TEST_CASE("L(2, χ) by divisor sums lies in PARI/GP's lfun at conductors 10^11 a
     std::string line;
     REQUIRE(std::getline(out, line));
     REQUIRE(is_fundamental_discriminant(Fmpz(d)));
-    Arb exact, ref, rad;
+    Arb exact, ref;
     dirichlet_l_from_rational(exact, dirichlet_l2_rational_divisor_sums(Fmpz(d)), Fmpz(d), 2, 160);
-    // gp prints 45 significant digits at realprecision 45: a ball of relative radius 2^{−130} around them.
-    arb_set_str(ref, line.c_str(), 160);
-    arb_abs(rad, ref);
-    arb_mul_2exp_si(rad, rad, -130);
-    arb_add_error(ref, rad);
+    testing::gp_decimal_ball(ref, line);
     INFO("d = " << d << ", gp: " << line << ", ours: " << exact.str(40));
     CHECK(arb_overlaps(exact, ref));
   }

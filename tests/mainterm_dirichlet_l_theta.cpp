@@ -99,15 +99,6 @@ TEST_CASE("theta route: the term count grows like sqrt(f) and is stated before t
 
 namespace {
 
-// gp's 45 printed digits as a ball of relative radius 2^{−130}.
-void gp_ball(arb_t res, const std::string& line) {
-  Arb rad;
-  arb_set_str(res, line.c_str(), 200);
-  arb_abs(rad, res);
-  arb_mul_2exp_si(rad, rad, -130);
-  arb_add_error(res, rad);
-}
-
 void check_against_gp(const std::vector<std::pair<slong, ulong>>& cases) {
   if (!testing::gp_available()) {
     WARN("gp not on PATH: PARI/GP comparison skipped");
@@ -126,7 +117,7 @@ void check_against_gp(const std::vector<std::pair<slong, ulong>>& cases) {
     REQUIRE(R.has_value());
     Arb ours, ref;
     dirichlet_l_from_rational(ours, *R, Fmpz(d), k, 200);
-    gp_ball(ref, line);
+    testing::gp_decimal_ball(ref, line);
     INFO("d = " << d << ", k = " << k << ", gp: " << line << ", ours: " << ours.str(45));
     CHECK(arb_overlaps(ours, ref));
   }

@@ -178,8 +178,11 @@ Fmpq dirichlet_l_rational(const Fmpz& d, ulong k) {
   int sign = fmpz_sgn(d.get());
   CIRCLET_ASSERT((sign > 0) == (k % 2 == 0), "dirichlet_l_rational: need χ(−1) = (−1)^k");
   CIRCLET_ASSERT(!(fmpz_is_one(d.get()) && k == 1), "dirichlet_l_rational: ζ(1) diverges");
+  return dirichlet_l_rational_from_bernoulli(generalised_bernoulli(d, k), d, k);
+}
+
+Fmpq dirichlet_l_rational_from_bernoulli(const Fmpq& B, const Fmpz& d, ulong k) {
   // R = (−1)^{1+⌊k/2⌋} 2^{k−1}/k! · B_{k,χ}/f^{k−1}.
-  Fmpq B = generalised_bernoulli(d, k);
   Fmpz f, fac, two;
   fmpz_abs(f.get(), d.get());
   fmpz_pow_ui(f.get(), f.get(), k - 1);

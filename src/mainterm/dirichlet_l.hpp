@@ -44,6 +44,10 @@ Fmpq discriminant_cofactor(const Fmpq& D, const Fmpz& d0);
 /// operations: use for moderate conductor only. d fundamental, k ≥ 1.
 Fmpq generalised_bernoulli(const Fmpz& d, ulong k);
 
+/// R = (−1)^{1+⌊k/2⌋} 2^{k−1}/k! · B_{k,χ}/f^{k−1} from B = B_{k,χ_d} (f = |d|): the
+/// step shared by every exact route that yields the generalised Bernoulli number.
+Fmpq dirichlet_l_rational_from_bernoulli(const Fmpq& B, const Fmpz& d, ulong k);
+
 /// R with L(k, χ_d) = R π^k / sqrt(f); requires χ_d(−1) = (−1)^k (d > 0 for
 /// even k, d < 0 for odd k; d = 1 allowed for even k ≥ 2: ζ(k)).
 Fmpq dirichlet_l_rational(const Fmpz& d, ulong k);

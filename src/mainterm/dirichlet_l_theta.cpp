@@ -389,16 +389,16 @@ Fmpz bernoulli_denominator_lcm(ulong k) {
 
 // log2 of |D_k f B_{k,χ}| (estimate), the integer the rounding determines:
 // |B_{k,χ}| = 2 k! f^{k−1/2} L / (2π)^k with L ≤ ζ(k) < 2.
-double log2_rounding_integer(const Fmpz& d, ulong k) {
+double log2_rounding_integer(const Fmpz& d, ulong k, const Fmpz& D) {
   const double f = std::fabs(fmpz_get_d(d.get()));
-  return std::log2(fmpz_get_d(bernoulli_denominator_lcm(k).get())) + ((double)k + 0.5) * std::log2(f) +
+  return std::log2(fmpz_get_d(D.get())) + ((double)k + 0.5) * std::log2(f) +
          std::lgamma((double)k + 1) / kLn2 + 2 - (double)k * std::log2(2 * M_PI);
 }
 
 }  // namespace
 
 double dirichlet_l_theta_terms(const Fmpz& d, ulong k) {
-  const double bits = log2_rounding_integer(d, k) + 6;
+  const double bits = log2_rounding_integer(d, k, bernoulli_denominator_lcm(k)) + 6;
   const ThetaPlan p = make_plan(d, k, log2_lambda(d, k) - bits);
   return (double)(p.N1 + p.N2);
 }
@@ -421,7 +421,7 @@ std::optional<Fmpq> dirichlet_l_rational_theta(const Fmpz& d, ulong k, int threa
   fmpz_abs(f.get(), d.get());
   for (int attempt = 0; attempt < 2; ++attempt) {
     // Enough relative accuracy that the integer's ball is narrower than 1/32.
-    const slong bits = (slong)std::ceil(log2_rounding_integer(d, k)) + 6 + 32 * attempt;
+    const slong bits = (slong)std::ceil(log2_rounding_integer(d, k, D)) + 6 + 32 * attempt;
     Arb L, t, pi;
     dirichlet_l_theta(L, d, k, bits, threads, progress);
     // D f B_{k,χ} = D f · f^{k−1} k! L sqrt(f) / (2^{k−1} π^k) · (−1)^{1+⌊k/2⌋}.
@@ -443,16 +443,12 @@ std::optional<Fmpq> dirichlet_l_rational_theta(const Fmpz& d, ulong k, int threa
     if (((1 + k / 2) & 1) == 1) arb_neg(t, t);
     Fmpz N;
     if (!arb_get_unique_fmpz(N.get(), t)) continue;
-    // B_{k,χ} = N / (D f);  R = (−1)^{1+⌊k/2⌋} 2^{k−1}/k! · B_{k,χ} / f^{k−1}.
-    Fmpq R;
+    // B_{k,χ} = N / (D f).
     Fmpz den;
-    fmpz_pow_ui(den.get(), f.get(), k);
-    fmpz_mul(den.get(), den.get(), D.get());
-    fmpz_mul(den.get(), den.get(), fac.get());
-    fmpq_set_fmpz_frac(R.get(), N.get(), den.get());
-    fmpq_mul_2exp(R.get(), R.get(), k - 1);
-    if (((1 + k / 2) & 1) == 1) fmpq_neg(R.get(), R.get());
-    return R;
+    fmpz_mul(den.get(), D.get(), f.get());
+    Fmpq B;
+    fmpq_set_fmpz_frac(B.get(), N.get(), den.get());
+    return dirichlet_l_rational_from_bernoulli(B, d, k);
   }
   return std::nullopt;
 }

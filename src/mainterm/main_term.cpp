@@ -246,7 +246,7 @@ MainTerm main_term(const QuadraticModel& model, const Fmpz& n, slong prec, const
     dirichlet_l_euler(P.L_value.get(), P.discriminant, s, Pmax, prec);
     P.accuracy_limited = Pmax >= options.max_euler_prime;
     P.L_route = "ball: Euler product over p ≤ " + std::to_string(Pmax) + " with rigorous tail bound";
-    if (theta_terms > options.max_theta_terms && options.max_theta_terms > 0)
+    if (theta_terms > options.max_theta_terms)  // computed only when the route was allowed
       P.L_route += " (the exact theta route needs " + std::to_string((long)theta_terms) +
                    " terms, above --l-value-terms " + std::to_string((long)options.max_theta_terms) + ")";
   } else {
